@@ -1,0 +1,8 @@
+import type { Migration } from 'kysely';
+import * as initial from './2026_12_01_0001_initial';
+
+// Every migration, in order. A static list (rather than a folder scan) works the
+// same under tsx, Vitest and worker threads. Add new files at the end.
+export const migrations: Record<string, Migration> = {
+  '2026_12_01_0001_initial': initial,
+};

@@ -1,0 +1,41 @@
+import { mkdirSync } from 'node:fs';
+import { dirname } from 'node:path';
+import SQLite from 'better-sqlite3';
+import { Kysely, Migrator, SqliteDialect, type MigrationProvider } from 'kysely';
+import { migrations } from '../../migrations/index';
+import type { Database } from './schema';
+
+export type Db = Kysely<Database>;
+
+export interface OpenedDatabase {
+  db: Db;
+  /** The raw better-sqlite3 handle, for lucia's adapter and bulk BLOB reads. */
+  sqlite: SQLite.Database;
+}
+
+/** Opens (creating if needed) the SQLite file with WAL, foreign keys and a busy timeout. */
+export function openDatabase(file: string): OpenedDatabase {
+  if (file !== ':memory:') mkdirSync(dirname(file), { recursive: true });
+  const sqlite = new SQLite(file);
+  sqlite.pragma('journal_mode = WAL');
+  sqlite.pragma('foreign_keys = ON');
+  sqlite.pragma('busy_timeout = 5000');
+  sqlite.pragma('synchronous = NORMAL');
+  const db = new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) });
+  return { db, sqlite };
+}
+
+const staticProvider: MigrationProvider = {
+  getMigrations: async () => migrations,
+};
+
+/** Brings the schema up to the latest migration; throws with the failing migration's name. */
+export async function migrateToLatest(db: Kysely<Database>): Promise<void> {
+  const migrator = new Migrator({ db, provider: staticProvider });
+  const { error, results } = await migrator.migrateToLatest();
+  const failed = results?.find((result) => result.status === 'Error');
+  if (error) {
+    const where = failed ? ` (migration ${failed.migrationName})` : '';
+    throw new Error(`database migration failed${where}: ${String(error)}`, { cause: error });
+  }
+}

@@ -1,0 +1,266 @@
+import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
+
+// Table types for Kysely. Rows of these types never leave the server: each
+// feature's service maps them to the API types in shared/schemas.
+
+export interface UsersTable {
+  id: string;
+  email: string;
+  name: string;
+  password_hash: string;
+  is_admin: number;
+  disabled_at: string | null;
+  password_changed_at: string;
+  created_at: string;
+}
+
+export interface SessionsTable {
+  id: string;
+  user_id: string;
+  expires_at: number;
+}
+
+export interface MattersTable {
+  id: Generated<number>;
+  name: string;
+  description: Generated<string>;
+  control_prefix: string;
+  next_control_seq: Generated<number>;
+  current_index_id: number | null;
+  created_by: string | null;
+  created_at: string;
+}
+
+export interface MatterMembersTable {
+  matter_id: number;
+  user_id: string;
+  role: string;
+  granted_by: string | null;
+  granted_at: string;
+}
+
+export interface InvitationsTable {
+  id: Generated<number>;
+  matter_id: number;
+  email: string;
+  role: string;
+  token_hash: string;
+  invited_by: string;
+  created_at: string;
+  expires_at: string;
+  accepted_at: string | null;
+  accepted_by: string | null;
+  revoked_at: string | null;
+}
+
+export interface CustodiansTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  created_at: string;
+}
+
+export interface UploadBatchesTable {
+  id: Generated<number>;
+  matter_id: number;
+  custodian_id: number | null;
+  source: 'upload' | 'import' | 'demo';
+  file_count: Generated<number>;
+  created_by: string | null;
+  created_at: string;
+}
+
+export type ExtractStatus = 'pending' | 'extracting' | 'extracted' | 'failed' | 'duplicate';
+
+export interface DocumentsTable {
+  id: Generated<number>;
+  matter_id: number;
+  batch_id: number | null;
+  custodian_id: number | null;
+  parent_id: number | null;
+  control_number: string;
+  original_name: string;
+  original_path: Generated<string>;
+  sha256: string;
+  mime: Generated<string>;
+  doc_type: Generated<string>;
+  size: number;
+  title: Generated<string>;
+  author: Generated<string>;
+  recipients: Generated<string>;
+  sent_at: string | null;
+  page_count: number | null;
+  extract_status: Generated<ExtractStatus>;
+  extract_error: string | null;
+  duplicate_of: number | null;
+  created_at: string;
+}
+
+export interface DocumentTextsTable {
+  document_id: number;
+  title: Generated<string>;
+  body: Generated<string>;
+}
+
+export interface DocumentsFtsTable {
+  rowid: number;
+  title: string;
+  body: string;
+  documents_fts: string;
+  rank: number;
+}
+
+export type JobStatus = 'queued' | 'running' | 'succeeded' | 'failed' | 'cancelled';
+
+export interface JobsTable {
+  id: Generated<number>;
+  matter_id: number | null;
+  kind: string;
+  status: Generated<JobStatus>;
+  progress: Generated<number>;
+  total: Generated<number>;
+  message: Generated<string>;
+  error: string | null;
+  payload: Generated<string>;
+  created_by: string | null;
+  created_at: string;
+  started_at: string | null;
+  finished_at: string | null;
+}
+
+export type IndexStatus = 'building' | 'ready' | 'failed' | 'superseded';
+
+export interface IndexVersionsTable {
+  id: Generated<number>;
+  matter_id: number;
+  version: number;
+  status: IndexStatus;
+  k: number;
+  weighting: string;
+  n_docs: Generated<number>;
+  n_terms: Generated<number>;
+  nnz: Generated<number>;
+  singular_values: Uint8Array | null;
+  frobenius_sq: number | null;
+  energy: number | null;
+  orthogonality_u: number | null;
+  orthogonality_v: number | null;
+  build_ms: number | null;
+  peak_rss_mb: number | null;
+  params: Generated<string>;
+  error: string | null;
+  job_id: number | null;
+  requested_by: string | null;
+  created_at: string;
+  completed_at: string | null;
+}
+
+export interface IndexTermsTable {
+  index_id: number;
+  term_id: number;
+  term: string;
+  df: number;
+  global_weight: number;
+  vector: Uint8Array;
+}
+
+export interface IndexDocsTable {
+  index_id: number;
+  document_id: number;
+  vector: Uint8Array;
+  folded_in: Generated<number>;
+}
+
+export interface CodesTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  shortcut: string | null;
+  sort_order: Generated<number>;
+  marks_privileged: Generated<number>;
+  archived_at: string | null;
+  created_at: string;
+}
+
+export interface DocumentCodesTable {
+  document_id: number;
+  code_id: number;
+  coded_by: string;
+  coded_at: string;
+}
+
+export interface PrivilegeEntriesTable {
+  document_id: number;
+  basis: Generated<string>;
+  description: Generated<string>;
+  updated_by: string;
+  updated_at: string;
+}
+
+export interface NotesTable {
+  id: Generated<number>;
+  document_id: number;
+  author_id: string;
+  body: string;
+  created_at: string;
+}
+
+export interface SavedSearchesTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  query: string;
+  mode: string;
+  filters: Generated<string>;
+  created_by: string;
+  created_at: string;
+}
+
+export interface AuditEventsTable {
+  id: Generated<number>;
+  at: string;
+  actor_id: string | null;
+  actor_email: string | null;
+  matter_id: number | null;
+  action: string;
+  target_type: string | null;
+  target_id: string | null;
+  detail: Generated<string>;
+  ip: string | null;
+}
+
+export interface Database {
+  users: UsersTable;
+  sessions: SessionsTable;
+  matters: MattersTable;
+  matter_members: MatterMembersTable;
+  invitations: InvitationsTable;
+  custodians: CustodiansTable;
+  upload_batches: UploadBatchesTable;
+  documents: DocumentsTable;
+  document_texts: DocumentTextsTable;
+  documents_fts: DocumentsFtsTable;
+  jobs: JobsTable;
+  index_versions: IndexVersionsTable;
+  index_terms: IndexTermsTable;
+  index_docs: IndexDocsTable;
+  codes: CodesTable;
+  document_codes: DocumentCodesTable;
+  privilege_entries: PrivilegeEntriesTable;
+  notes: NotesTable;
+  saved_searches: SavedSearchesTable;
+  audit_events: AuditEventsTable;
+}
+
+export type UserRow = Selectable<UsersTable>;
+export type NewUserRow = Insertable<UsersTable>;
+export type MatterRow = Selectable<MattersTable>;
+export type MemberRow = Selectable<MatterMembersTable>;
+export type InvitationRow = Selectable<InvitationsTable>;
+export type DocumentRow = Selectable<DocumentsTable>;
+export type NewDocumentRow = Insertable<DocumentsTable>;
+export type DocumentUpdate = Updateable<DocumentsTable>;
+export type JobRow = Selectable<JobsTable>;
+export type IndexVersionRow = Selectable<IndexVersionsTable>;
+export type CodeRow = Selectable<CodesTable>;
+export type AuditEventRow = Selectable<AuditEventsTable>;

@@ -1,0 +1,41 @@
+import { z } from 'zod';
+
+// Every API error has this body: {"error": {"code", "message", "field"?}}.
+
+export const ERROR_CODES = [
+  'validation_failed',
+  'malformed_json',
+  'unauthenticated',
+  'forbidden',
+  'not_found',
+  'conflict',
+  'payload_too_large',
+  'rate_limited',
+  'csrf_rejected',
+  'unsupported_media_type',
+  'internal_error',
+] as const;
+export type ErrorCode = (typeof ERROR_CODES)[number];
+
+export const apiErrorSchema = z.object({
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    field: z.string().optional(),
+  }),
+});
+export type ApiErrorBody = z.infer<typeof apiErrorSchema>;
+
+export const STATUS_OF: Record<ErrorCode, number> = {
+  validation_failed: 400,
+  malformed_json: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  csrf_rejected: 403,
+  not_found: 404,
+  conflict: 409,
+  payload_too_large: 413,
+  unsupported_media_type: 415,
+  rate_limited: 429,
+  internal_error: 500,
+};
