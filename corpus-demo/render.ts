@@ -253,7 +253,7 @@ export function makeText(text: string, options: { encoding?: TextEncoding } = {}
   const encoding = options.encoding ?? 'utf8';
   if (encoding === 'utf16le')
     return Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]);
-  if (encoding === 'latin1' && /[^\u0000-\u00ff]/.test(text)) {
+  if (encoding === 'latin1' && [...text].some((char) => char.charCodeAt(0) > 0xff)) {
     throw new Error(
       'makeText: text has characters outside ISO-8859-1 and cannot be written as latin1',
     );
