@@ -1,0 +1,112 @@
+// Result types and the fixed failure wording shared by sniffing, extraction and archives.
+// Reasons are shown to paralegals as-is, so they name the problem in plain words.
+import { UPLOAD_DEFAULTS } from '../../shared/limits';
+
+/** What a file is, decided from its bytes (the extension only breaks ties). */
+export type FileKind = 'pdf' | 'docx' | 'zip' | 'email' | 'html' | 'text' | 'markdown' | 'unknown';
+
+export const MIME_OF: Record<FileKind, string> = {
+  pdf: 'application/pdf',
+  docx: 'application/vnd.openxmlformats-officedocument.wordprocessingml.document',
+  zip: 'application/zip',
+  email: 'message/rfc822',
+  html: 'text/html',
+  text: 'text/plain',
+  markdown: 'text/markdown',
+  unknown: 'application/octet-stream',
+};
+
+/** Every reason a file can fail, worded for a paralegal. */
+export const FAILURE_REASONS = [
+  'encrypted PDF',
+  'no text layer: scanned image',
+  'not a valid DOCX',
+  'not a valid PDF',
+  'not a valid ZIP archive',
+  'encrypted archive',
+  'archive exceeds the unpacked-size limit',
+  'archive has too many files',
+  'archive nesting too deep',
+  'unsafe path in archive',
+  'unsupported type',
+  'empty file',
+  'file exceeds the size limit',
+  'extraction timed out',
+  'file could not be read',
+  // Not a failure of the file: a zip goes to expandArchive, not extractFile.
+  'archive must be expanded, not extracted',
+] as const;
+export type FailureReason = (typeof FAILURE_REASONS)[number];
+
+export interface SniffResult {
+  kind: FileKind;
+  mime: string;
+  /** Character set of text kinds (text, markdown, html, email), e.g. "UTF-8", "ISO-8859-1". */
+  charset?: string;
+  /** For kind "unknown": what the bytes look like, e.g. "PNG image", for logs and tooltips. */
+  detail?: string;
+}
+
+/** An e-mail attachment, returned so the caller stores and extracts it as a child document. */
+export interface ChildFile {
+  name: string;
+  contentType: string;
+  /** True for inline parts (RFC 2387 multipart/related, e.g. a signature logo). */
+  inline: boolean;
+  content: Buffer;
+}
+
+export interface ExtractSuccess {
+  ok: true;
+  kind: Exclude<FileKind, 'unknown' | 'zip'>;
+  mime: string;
+  title: string | null;
+  /** Author of a PDF/DOCX, or the sender (From) of an e-mail. */
+  author: string | null;
+  /** E-mail recipients as display text ("Name <addr>, ..."); null for other kinds. */
+  recipients: { to: string; cc: string } | null;
+  /** E-mail Date header as ISO 8601; null for other kinds or when absent/invalid. */
+  sentAt: string | null;
+  /** Creation date from PDF info or DOCX core properties, ISO 8601, else null. */
+  createdAt: string | null;
+  pageCount: number | null;
+  charset: string | null;
+  text: string;
+  attachments: ChildFile[];
+}
+
+export interface ExtractFailure {
+  ok: false;
+  kind: FileKind;
+  mime: string;
+  reason: FailureReason;
+}
+
+export type ExtractResult = ExtractSuccess | ExtractFailure;
+
+export interface ExtractLimits {
+  maxFileBytes: number;
+  /** Wall-clock budget per file; a hostile file must not hang the worker. */
+  timeoutMs: number;
+}
+
+export const EXTRACT_DEFAULTS: ExtractLimits = {
+  maxFileBytes: UPLOAD_DEFAULTS.maxFileBytes,
+  timeoutMs: 30_000,
+};
+
+export interface ArchiveLimits {
+  maxArchiveEntries: number;
+  maxArchiveUnpackedBytes: number;
+  /** 1 means a plain zip; 2 allows a zip inside it; and so on. */
+  maxArchiveDepth: number;
+  /** Largest single entry, so one member cannot exceed the per-file limit. */
+  maxFileBytes: number;
+}
+
+export const ARCHIVE_DEFAULTS: ArchiveLimits = {
+  maxArchiveEntries: UPLOAD_DEFAULTS.maxArchiveEntries,
+  maxArchiveUnpackedBytes: UPLOAD_DEFAULTS.maxArchiveUnpackedBytes,
+  maxArchiveDepth: UPLOAD_DEFAULTS.maxArchiveDepth,
+  maxFileBytes: UPLOAD_DEFAULTS.maxFileBytes,
+};
