@@ -1,0 +1,85 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { createBrowserRouter, redirect } from 'react-router';
+import { setUnauthenticatedHandler } from '../lib/api-client';
+import * as account from './routes/account';
+import * as admin from './routes/admin';
+import * as appRoot from './routes/app-root';
+import * as devMail from './routes/dev-mail';
+import * as invitation from './routes/invitation';
+import * as matterAccess from './routes/matter/access';
+import * as matterActivity from './routes/matter/activity';
+import * as matterHome from './routes/matter/home';
+import * as matterLayout from './routes/matter/layout';
+import * as matters from './routes/matters';
+import { NotFoundRoute } from './routes/not-found';
+import { RouteError } from './routes/route-error';
+import * as signIn from './routes/sign-in';
+
+/**
+ * The route tree. A page that needs data exports `clientLoader(queryClient)`, which
+ * prefetches the query options the page reads. A new matter section goes under
+ * `matters/:matterId` here and into src/features/matters/matter-sections.ts.
+ */
+export function createAppRouter(queryClient: QueryClient) {
+  const router = createBrowserRouter([
+    {
+      path: '/sign-in',
+      loader: signIn.clientLoader(queryClient),
+      Component: signIn.SignInRoute,
+      ErrorBoundary: RouteError,
+    },
+    {
+      path: '/invitations/:token',
+      Component: invitation.InvitationRoute,
+      ErrorBoundary: RouteError,
+    },
+    { path: '/dev/mail', Component: devMail.DevMailRoute, ErrorBoundary: RouteError },
+    {
+      id: 'app',
+      loader: appRoot.clientLoader(queryClient),
+      Component: appRoot.AppRoot,
+      ErrorBoundary: RouteError,
+      children: [
+        { index: true, loader: () => redirect('/matters') },
+        {
+          path: 'matters',
+          loader: matters.clientLoader(queryClient),
+          Component: matters.MattersRoute,
+        },
+        {
+          path: 'matters/:matterId',
+          loader: matterLayout.clientLoader(queryClient),
+          Component: matterLayout.MatterLayout,
+          ErrorBoundary: RouteError,
+          children: [
+            { index: true, Component: matterHome.MatterHomeRoute },
+            {
+              path: 'access',
+              loader: matterAccess.clientLoader(queryClient),
+              Component: matterAccess.AccessRoute,
+            },
+            {
+              path: 'activity',
+              loader: matterActivity.clientLoader(queryClient),
+              Component: matterActivity.ActivityRoute,
+            },
+          ],
+        },
+        { path: 'account', Component: account.AccountRoute },
+        { path: 'admin', loader: admin.clientLoader(queryClient), Component: admin.AdminRoute },
+        { path: '*', Component: NotFoundRoute },
+      ],
+    },
+  ]);
+
+  // A 401 mid-session (expired, or ended by a password change) goes to sign-in and back.
+  setUnauthenticatedHandler(() => {
+    const { pathname, search } = router.state.location;
+    if (pathname.startsWith('/sign-in') || pathname.startsWith('/invitations/')) return;
+    queryClient.clear();
+    void router.navigate(`/sign-in?next=${encodeURIComponent(pathname + search)}`, {
+      replace: true,
+    });
+  });
+  return router;
+}

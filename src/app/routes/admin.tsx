@@ -1,0 +1,402 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { type FormEvent, useState } from 'react';
+import {
+  CONTROL_PREFIX_PATTERN,
+  EMAIL_MAX_LENGTH,
+  MATTER_NAME_MAX_LENGTH,
+  NAME_MAX_LENGTH,
+  PASSWORD_MIN_LENGTH,
+} from '../../../shared/limits';
+import {
+  Badge,
+  Button,
+  Dialog,
+  EmptyState,
+  Notice,
+  PageHeader,
+  QueryBoundary,
+  TBody,
+  THead,
+  Table,
+  Td,
+  TextField,
+  Th,
+  Tr,
+  describeError,
+} from '../../components/ui';
+import { useAppointLead } from '../../features/admin/api/appoint-lead';
+import { useCreateAccount } from '../../features/admin/api/create-account';
+import { useCreateMatter } from '../../features/admin/api/create-matter';
+import { accountsQueryOptions, useAccounts } from '../../features/admin/api/get-accounts';
+import {
+  type AdminMatter,
+  adminMattersQueryOptions,
+  useAdminMatters,
+} from '../../features/admin/api/get-admin-matters';
+import { useMe } from '../../features/auth/api/get-me';
+import { isApiError } from '../../lib/api-client';
+import { formatDate } from '../../lib/format';
+
+export const clientLoader = (queryClient: QueryClient) => async () => {
+  void queryClient.prefetchQuery(accountsQueryOptions());
+  void queryClient.prefetchQuery(adminMattersQueryOptions());
+  return null;
+};
+
+export function AdminRoute() {
+  const me = useMe();
+  if (me.data && !me.data.user.isAdmin) {
+    return (
+      <main className="mx-auto max-w-[88rem] px-4 py-6">
+        <Notice tone="warn" title="Firm admins only">
+          This page is for the firm's administrators, who create accounts and matters.
+        </Notice>
+      </main>
+    );
+  }
+  return (
+    <main className="mx-auto max-w-[88rem] px-4 py-6" data-testid="admin-page">
+      <PageHeader
+        title="Firm admin"
+        description="Create accounts and matters and appoint each matter's lead. Admins see no documents unless they are also members of a matter."
+      />
+      <div className="space-y-8">
+        <MattersSection />
+        <AccountsSection />
+      </div>
+    </main>
+  );
+}
+
+function fieldError(error: unknown, field: string): string | null {
+  return isApiError(error) && error.field === field ? error.message : null;
+}
+
+function MattersSection() {
+  const matters = useAdminMatters();
+  const [creating, setCreating] = useState(false);
+  const [appointing, setAppointing] = useState<AdminMatter | null>(null);
+  return (
+    <section aria-labelledby="admin-matters-heading">
+      <div className="mb-2 flex items-center justify-between">
+        <h2 id="admin-matters-heading" className="text-sm font-semibold">
+          Matters
+        </h2>
+        <Button size="sm" variant="primary" onClick={() => setCreating(true)}>
+          New matter
+        </Button>
+      </div>
+      <QueryBoundary query={matters} errorTitle="Matters could not be loaded">
+        {({ matters: list }) =>
+          list.length === 0 ? (
+            <EmptyState title="No matters yet" />
+          ) : (
+            <Table caption="All matters of the firm" data-testid="admin-matters-table">
+              <THead>
+                <tr>
+                  <Th>Matter</Th>
+                  <Th className="w-28">Prefix</Th>
+                  <Th>Lead</Th>
+                  <Th className="w-24">Members</Th>
+                  <Th className="w-32">Opened</Th>
+                  <Th className="w-36 text-right">Lead</Th>
+                </tr>
+              </THead>
+              <TBody>
+                {list.map((matter) => (
+                  <Tr key={matter.id}>
+                    <Td className="font-medium">{matter.name}</Td>
+                    <Td className="font-mono text-[13px] text-ink-muted">{matter.controlPrefix}</Td>
+                    <Td>
+                      {matter.leads.length === 0 ? (
+                        <Badge tone="warn">No lead</Badge>
+                      ) : (
+                        matter.leads.map((lead) => lead.name).join(', ')
+                      )}
+                    </Td>
+                    <Td className="tabular-nums">{matter.memberCount}</Td>
+                    <Td className="text-ink-muted">{formatDate(matter.createdAt)}</Td>
+                    <Td className="text-right">
+                      <Button size="sm" onClick={() => setAppointing(matter)}>
+                        Appoint lead
+                      </Button>
+                    </Td>
+                  </Tr>
+                ))}
+              </TBody>
+            </Table>
+          )
+        }
+      </QueryBoundary>
+      <CreateMatterDialog open={creating} onClose={() => setCreating(false)} />
+      <AppointLeadDialog matter={appointing} onClose={() => setAppointing(null)} />
+    </section>
+  );
+}
+
+function CreateMatterDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
+  const create = useCreateMatter();
+  const [name, setName] = useState('');
+  const [description, setDescription] = useState('');
+  const [controlPrefix, setPrefix] = useState('');
+  const [leadEmail, setLeadEmail] = useState('');
+  const prefixValid = CONTROL_PREFIX_PATTERN.test(controlPrefix);
+
+  const close = () => {
+    create.reset();
+    setName('');
+    setDescription('');
+    setPrefix('');
+    setLeadEmail('');
+    onClose();
+  };
+
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    create.mutate(
+      {
+        name: name.trim(),
+        description: description.trim(),
+        controlPrefix,
+        leadEmail: leadEmail.trim() || undefined,
+      },
+      { onSuccess: close },
+    );
+  }
+
+  const error = create.error;
+  return (
+    <Dialog
+      open={open}
+      onClose={close}
+      title="New matter"
+      description="The control prefix starts every Bates-style control number of the matter's documents."
+    >
+      <form onSubmit={submit} className="space-y-3" noValidate>
+        <TextField
+          label="Name"
+          required
+          maxLength={MATTER_NAME_MAX_LENGTH}
+          value={name}
+          onChange={(e) => setName(e.target.value)}
+          error={fieldError(error, 'name')}
+        />
+        <TextField
+          label="Description"
+          value={description}
+          onChange={(e) => setDescription(e.target.value)}
+          error={fieldError(error, 'description')}
+        />
+        <TextField
+          label="Control prefix"
+          hint="2–8 capital letters or digits, starting with a letter (e.g. HARB)."
+          value={controlPrefix}
+          onChange={(e) => setPrefix(e.target.value.toUpperCase())}
+          error={
+            controlPrefix && !prefixValid
+              ? 'Use 2–8 capital letters or digits, starting with a letter.'
+              : fieldError(error, 'controlPrefix')
+          }
+        />
+        <TextField
+          label="Lead's e-mail (optional)"
+          type="email"
+          maxLength={EMAIL_MAX_LENGTH}
+          value={leadEmail}
+          onChange={(e) => setLeadEmail(e.target.value)}
+          error={fieldError(error, 'leadEmail')}
+        />
+        {error && !(isApiError(error) && error.field) ? (
+          <Notice tone="danger">{describeError(error)}</Notice>
+        ) : null}
+        <div className="flex justify-end gap-2 pt-1">
+          <Button onClick={close}>Cancel</Button>
+          <Button
+            type="submit"
+            variant="primary"
+            busy={create.isPending}
+            disabled={!name.trim() || !prefixValid}
+          >
+            Create matter
+          </Button>
+        </div>
+      </form>
+    </Dialog>
+  );
+}
+
+function AppointLeadDialog({
+  matter,
+  onClose,
+}: {
+  matter: AdminMatter | null;
+  onClose: () => void;
+}) {
+  const appoint = useAppointLead();
+  const [email, setEmail] = useState('');
+  const close = () => {
+    appoint.reset();
+    setEmail('');
+    onClose();
+  };
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    if (!matter) return;
+    appoint.mutate({ matterId: matter.id, email: email.trim() }, { onSuccess: close });
+  }
+  return (
+    <Dialog
+      open={matter !== null}
+      onClose={close}
+      title={matter ? `Appoint a lead for ${matter.name}` : 'Appoint lead'}
+      description="The account becomes the matter's lead; it can then invite the team."
+    >
+      <form onSubmit={submit} className="space-y-3" noValidate>
+        <TextField
+          label="Account e-mail"
+          type="email"
+          required
+          value={email}
+          onChange={(e) => setEmail(e.target.value)}
+          error={fieldError(appoint.error, 'email')}
+        />
+        {appoint.error && !(isApiError(appoint.error) && appoint.error.field) ? (
+          <Notice tone="danger">{describeError(appoint.error)}</Notice>
+        ) : null}
+        <div className="flex justify-end gap-2 pt-1">
+          <Button onClick={close}>Cancel</Button>
+          <Button type="submit" variant="primary" busy={appoint.isPending} disabled={!email.trim()}>
+            Appoint lead
+          </Button>
+        </div>
+      </form>
+    </Dialog>
+  );
+}
+
+function AccountsSection() {
+  const accounts = useAccounts();
+  const [creating, setCreating] = useState(false);
+  return (
+    <section aria-labelledby="admin-accounts-heading">
+      <div className="mb-2 flex items-center justify-between">
+        <h2 id="admin-accounts-heading" className="text-sm font-semibold">
+          Accounts
+        </h2>
+        <Button size="sm" variant="primary" onClick={() => setCreating(true)}>
+          New account
+        </Button>
+      </div>
+      <QueryBoundary query={accounts} errorTitle="Accounts could not be loaded">
+        {({ accounts: list }) => (
+          <Table caption="All accounts of the firm" data-testid="admin-accounts-table">
+            <THead>
+              <tr>
+                <Th>Name</Th>
+                <Th>E-mail</Th>
+                <Th className="w-32">Kind</Th>
+                <Th className="w-32">Created</Th>
+              </tr>
+            </THead>
+            <TBody>
+              {list.map((account) => (
+                <Tr key={account.id}>
+                  <Td className="font-medium">{account.name}</Td>
+                  <Td className="text-ink-muted">{account.email}</Td>
+                  <Td>
+                    {account.isAdmin ? <Badge tone="info">Firm admin</Badge> : null}
+                    {account.disabledAt ? <Badge tone="danger">Disabled</Badge> : null}
+                    {!account.isAdmin && !account.disabledAt ? (
+                      <span className="text-ink-muted">Member</span>
+                    ) : null}
+                  </Td>
+                  <Td className="text-ink-muted">{formatDate(account.createdAt)}</Td>
+                </Tr>
+              ))}
+            </TBody>
+          </Table>
+        )}
+      </QueryBoundary>
+      <CreateAccountDialog open={creating} onClose={() => setCreating(false)} />
+    </section>
+  );
+}
+
+function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
+  const create = useCreateAccount();
+  const [email, setEmail] = useState('');
+  const [name, setName] = useState('');
+  const [password, setPassword] = useState('');
+  const [isAdmin, setIsAdmin] = useState(false);
+  const close = () => {
+    create.reset();
+    setEmail('');
+    setName('');
+    setPassword('');
+    setIsAdmin(false);
+    onClose();
+  };
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    create.mutate(
+      { email: email.trim(), name: name.trim(), password, isAdmin },
+      { onSuccess: close },
+    );
+  }
+  const error = create.error;
+  return (
+    <Dialog
+      open={open}
+      onClose={close}
+      title="New account"
+      description="Give the person this first password by a separate channel; they can change it on My account."
+    >
+      <form onSubmit={submit} className="space-y-3" noValidate>
+        <TextField
+          label="Name"
+          required
+          maxLength={NAME_MAX_LENGTH}
+          value={name}
+          onChange={(e) => setName(e.target.value)}
+          error={fieldError(error, 'name')}
+        />
+        <TextField
+          label="E-mail"
+          type="email"
+          required
+          maxLength={EMAIL_MAX_LENGTH}
+          value={email}
+          onChange={(e) => setEmail(e.target.value)}
+          error={fieldError(error, 'email')}
+        />
+        <TextField
+          label="First password"
+          type="password"
+          autoComplete="new-password"
+          hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
+          value={password}
+          onChange={(e) => setPassword(e.target.value)}
+          error={fieldError(error, 'password')}
+        />
+        <label className="flex items-center gap-2 text-sm">
+          <input
+            type="checkbox"
+            className="size-4 accent-accent"
+            checked={isAdmin}
+            onChange={(e) => setIsAdmin(e.target.checked)}
+          />
+          Firm admin (creates accounts and matters; sees no documents unless a member)
+        </label>
+        {error && !(isApiError(error) && error.field) ? (
+          <Notice tone="danger">{describeError(error)}</Notice>
+        ) : null}
+        <div className="flex justify-end gap-2 pt-1">
+          <Button onClick={close}>Cancel</Button>
+          <Button type="submit" variant="primary" busy={create.isPending}>
+            Create account
+          </Button>
+        </div>
+      </form>
+    </Dialog>
+  );
+}

@@ -1,0 +1,174 @@
+import { type FormEvent, useState } from 'react';
+import { Link, useNavigate, useParams } from 'react-router';
+import { NAME_MAX_LENGTH, PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '../../../shared/limits';
+import { ROLE_LABELS } from '../../../shared/roles';
+import { PublicLayout } from '../../components/layout/public-layout';
+import {
+  Button,
+  ErrorPanel,
+  LoadingBlock,
+  Notice,
+  TextField,
+  describeError,
+} from '../../components/ui';
+import { useAcceptInvitation } from '../../features/invitations/api/accept-invitation';
+import {
+  type InvitationPreview,
+  useInvitation,
+} from '../../features/invitations/api/get-invitation';
+import { isApiError } from '../../lib/api-client';
+import { formatDateTime } from '../../lib/format';
+
+/** /invitations/:token — create an account (name + password) or link an existing one. */
+export function InvitationRoute() {
+  const token = useParams().token ?? '';
+  const invitation = useInvitation(token);
+  return (
+    <PublicLayout>
+      {invitation.isPending ? (
+        <LoadingBlock label="Checking the invitation…" />
+      ) : invitation.isError ? (
+        <InvitationProblem error={invitation.error} onRetry={() => void invitation.refetch()} />
+      ) : (
+        <AcceptForm token={token} invitation={invitation.data.invitation} />
+      )}
+    </PublicLayout>
+  );
+}
+
+function InvitationProblem({ error, onRetry }: { error: unknown; onRetry: () => void }) {
+  const final = isApiError(error) && error.isClientError;
+  return (
+    <div className="space-y-4">
+      <h1 className="text-xl font-semibold tracking-tight">This invitation cannot be used</h1>
+      {final ? (
+        <Notice tone="danger" title="Invitation not valid">
+          {error.message} Ask the matter lead to send a new one.
+        </Notice>
+      ) : (
+        <ErrorPanel error={error} onRetry={onRetry} />
+      )}
+      <Link
+        to="/sign-in"
+        className="text-sm font-medium text-accent-strong underline underline-offset-2"
+      >
+        Go to sign-in
+      </Link>
+    </div>
+  );
+}
+
+function AcceptForm({ token, invitation }: { token: string; invitation: InvitationPreview }) {
+  const accept = useAcceptInvitation(token);
+  const navigate = useNavigate();
+  const [mode, setMode] = useState<'create' | 'link'>(invitation.accountExists ? 'link' : 'create');
+  const [name, setName] = useState('');
+  const [password, setPassword] = useState('');
+  const [repeat, setRepeat] = useState('');
+  const [localError, setLocalError] = useState<string | null>(null);
+
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    if (mode === 'create') {
+      if (!name.trim()) return setLocalError('Enter your name.');
+      if (password.length < PASSWORD_MIN_LENGTH)
+        return setLocalError(`Use at least ${PASSWORD_MIN_LENGTH} characters.`);
+      if (password !== repeat) return setLocalError('The two passwords differ.');
+    }
+    setLocalError(null);
+    accept.mutate(mode === 'create' ? { mode, name: name.trim(), password } : { mode, password }, {
+      onSuccess: () =>
+        void navigate(`/sign-in?email=${encodeURIComponent(invitation.email)}&accepted=1`, {
+          replace: true,
+        }),
+    });
+  }
+
+  return (
+    <div data-testid="invitation-page">
+      <h1 className="text-xl font-semibold tracking-tight">Join {invitation.matterName}</h1>
+      <p className="mt-1 text-sm text-ink-muted">
+        {invitation.invitedByName} invited <strong className="text-ink">{invitation.email}</strong>{' '}
+        as <strong className="text-ink">{ROLE_LABELS[invitation.role]}</strong>. The link works once
+        and expires {formatDateTime(invitation.expiresAt)}.
+      </p>
+      <div
+        role="radiogroup"
+        aria-label="How to accept"
+        className="mt-5 grid grid-cols-2 gap-1 rounded-md border border-line bg-sunk p-1 text-sm"
+      >
+        {(['create', 'link'] as const).map((value) => (
+          <button
+            key={value}
+            type="button"
+            role="radio"
+            aria-checked={mode === value}
+            onClick={() => {
+              setMode(value);
+              accept.reset();
+              setLocalError(null);
+            }}
+            className={
+              mode === value
+                ? 'rounded bg-panel px-3 py-1.5 font-medium shadow-sm'
+                : 'rounded px-3 py-1.5 text-ink-muted hover:text-ink'
+            }
+          >
+            {value === 'create' ? 'Create my account' : 'I already have an account'}
+          </button>
+        ))}
+      </div>
+      <form
+        onSubmit={submit}
+        className="mt-4 space-y-4 rounded-lg border border-line bg-panel p-5"
+        noValidate
+        data-testid="accept-form"
+      >
+        {mode === 'create' ? (
+          <>
+            <TextField
+              label="Your name"
+              autoComplete="name"
+              maxLength={NAME_MAX_LENGTH}
+              value={name}
+              onChange={(e) => setName(e.target.value)}
+            />
+            <TextField
+              label="Choose a password"
+              type="password"
+              autoComplete="new-password"
+              hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
+              maxLength={PASSWORD_MAX_LENGTH}
+              value={password}
+              onChange={(e) => setPassword(e.target.value)}
+            />
+            <TextField
+              label="Repeat the password"
+              type="password"
+              autoComplete="new-password"
+              value={repeat}
+              onChange={(e) => setRepeat(e.target.value)}
+            />
+          </>
+        ) : (
+          <TextField
+            label={`Password of ${invitation.email}`}
+            type="password"
+            autoComplete="current-password"
+            value={password}
+            onChange={(e) => setPassword(e.target.value)}
+          />
+        )}
+        {localError ? <Notice tone="danger">{localError}</Notice> : null}
+        {accept.isError ? (
+          <Notice tone="danger" title="Not accepted">
+            {describeError(accept.error)}
+          </Notice>
+        ) : null}
+        <Button type="submit" variant="primary" className="w-full" busy={accept.isPending}>
+          {mode === 'create' ? 'Create account and join' : 'Link my account and join'}
+        </Button>
+      </form>
+    </div>
+  );
+}

@@ -1,0 +1,98 @@
+import { useQuery } from '@tanstack/react-query';
+import { NavLink, Outlet, useNavigate } from 'react-router';
+import { useMe } from '../../features/auth/api/get-me';
+import { useSignOut } from '../../features/auth/api/sign-out';
+import { devMailQueryOptions } from '../../features/dev-mail/api/get-dev-mail';
+import { cn } from '../../lib/cn';
+import { Button } from '../ui';
+import { Wordmark } from './wordmark';
+
+const navLinkClass = ({ isActive }: { isActive: boolean }) =>
+  cn(
+    'rounded px-2 py-1 text-sm font-medium',
+    isActive ? 'bg-accent-soft text-accent-strong' : 'text-ink-muted hover:text-ink hover:bg-sunk',
+  );
+
+/** The signed-in shell: top bar, the page, and a quiet footer. */
+export function AppLayout() {
+  const me = useMe();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  const user = me.data?.user;
+
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-panel focus:px-3 focus:py-2"
+      >
+        Skip to content
+      </a>
+      <header className="border-b border-line bg-panel">
+        <div className="mx-auto flex h-12 max-w-[88rem] items-center gap-5 px-4">
+          <Wordmark />
+          <nav aria-label="Main" className="flex items-center gap-1">
+            <NavLink to="/matters" className={navLinkClass} data-testid="nav-matters">
+              My matters
+            </NavLink>
+            {user?.isAdmin ? (
+              <NavLink to="/admin" className={navLinkClass} data-testid="nav-admin">
+                Firm admin
+              </NavLink>
+            ) : null}
+          </nav>
+          <div className="ml-auto flex items-center gap-2">
+            {user ? (
+              <NavLink
+                to="/account"
+                className={navLinkClass}
+                data-testid="nav-account"
+                title={user.email}
+              >
+                {user.name}
+              </NavLink>
+            ) : null}
+            <Button
+              size="sm"
+              variant="quiet"
+              busy={signOut.isPending}
+              data-testid="sign-out"
+              onClick={() =>
+                signOut.mutate(undefined, {
+                  onSettled: () => void navigate('/sign-in', { replace: true }),
+                })
+              }
+            >
+              Sign out
+            </Button>
+          </div>
+        </div>
+      </header>
+      <div id="main" className="flex-1">
+        <Outlet />
+      </div>
+      <AppFooter />
+    </div>
+  );
+}
+
+export function AppFooter() {
+  // The dev mailbox exists only in demo/dev mode; elsewhere the endpoint is a 404.
+  const devMail = useQuery({ ...devMailQueryOptions(), retry: false, staleTime: 5 * 60_000 });
+  return (
+    <footer className="border-t border-line">
+      <div className="mx-auto flex max-w-[88rem] items-center gap-4 px-4 py-2 text-xs text-ink-muted">
+        <span>Quarry — concept search and review for legal teams</span>
+        {devMail.isSuccess ? (
+          <a
+            href="/dev/mail"
+            className="ml-auto underline decoration-line-strong underline-offset-2 hover:text-ink"
+            data-testid="footer-dev-mail"
+          >
+            Demo mailbox
+          </a>
+        ) : null}
+      </div>
+    </footer>
+  );
+}

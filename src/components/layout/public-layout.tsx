@@ -1,0 +1,25 @@
+import type { ReactNode } from 'react';
+import { Wordmark } from './wordmark';
+
+/** Pages reached without a session: sign-in, invitation, dev mailbox. */
+export function PublicLayout({ children, wide = false }: { children: ReactNode; wide?: boolean }) {
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="border-b border-line bg-panel">
+        <div className="mx-auto flex h-12 max-w-[88rem] items-center px-4">
+          <Wordmark to="/" />
+        </div>
+      </header>
+      <main
+        id="main"
+        className={
+          wide
+            ? 'mx-auto w-full max-w-5xl flex-1 px-4 py-8'
+            : 'mx-auto w-full max-w-md flex-1 px-4 py-12'
+        }
+      >
+        {children}
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,12 @@
+export { Badge } from './badge';
+export { Button, type ButtonProps } from './button';
+export { Dialog } from './dialog';
+export { EmptyState } from './empty-state';
+export { ErrorPanel, describeError } from './error-panel';
+export { Notice } from './notice';
+export { PageHeader } from './page-header';
+export { Select, type SelectOption } from './select';
+export { LoadingBlock, SkeletonRows, Spinner } from './spinner';
+export { TBody, THead, Table, Td, Th, Tr } from './table';
+export { TextField, inputClass } from './text-field';
+export { QueryBoundary } from './query-boundary';

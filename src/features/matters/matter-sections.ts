@@ -1,0 +1,46 @@
+import type { MatterPermission } from '../../../shared/roles';
+
+/**
+ * The sections of a matter, in the order the matter's navigation lists them.
+ * To add a section: add its route under the matter layout in src/app/router.tsx
+ * and one entry here. A section is shown only to roles holding `permission`
+ * (shared/roles.ts); the server refuses the same requests anyway.
+ */
+export interface MatterSection {
+  /** Stable id, also used as data-testid `matter-nav-<id>`. */
+  id: string;
+  label: string;
+  /** Path below /matters/:matterId ('' is the matter's home). */
+  path: string;
+  permission: MatterPermission;
+  /** One line for the matter home's overview of sections. */
+  summary: string;
+}
+
+export const MATTER_SECTIONS: readonly MatterSection[] = [
+  {
+    id: 'overview',
+    label: 'Overview',
+    path: '',
+    permission: 'matter.view',
+    summary: 'The matter at a glance and your role on it.',
+  },
+  {
+    id: 'access',
+    label: 'Access',
+    path: 'access',
+    permission: 'members.view',
+    summary: 'Who may work on this matter, their roles, and pending invitations.',
+  },
+  {
+    id: 'activity',
+    label: 'Activity log',
+    path: 'activity',
+    permission: 'audit.read',
+    summary: 'Every sign-in, invitation and access change, newest first.',
+  },
+];
+
+export function matterSectionHref(matterId: number, section: MatterSection): string {
+  return section.path ? `/matters/${matterId}/${section.path}` : `/matters/${matterId}`;
+}

@@ -1,0 +1,22 @@
+import type { MatterPermission } from '../../shared/roles';
+
+/** Plain words for each permission, shown on the matter home ("what your role may do"). */
+export const PERMISSION_LABELS: Record<MatterPermission, string> = {
+  'matter.view': 'Open the matter',
+  'documents.read': 'Read documents',
+  'documents.upload': 'Upload documents',
+  'documents.organise': 'Organise custodians and batches',
+  'documents.delete': 'Delete documents',
+  'documents.code': 'Code documents',
+  'search.run': 'Run searches',
+  'searches.save': 'Save searches for the team',
+  'codes.manage': 'Edit the code set',
+  'exports.create': 'Export results and the privilege log',
+  'members.view': 'See who has access',
+  'members.manage': 'Grant, change and revoke access',
+  'audit.read': 'Read the activity log',
+  'index.view': 'See the index status',
+  'index.rebuild': 'Rebuild the concept index',
+  'concepts.view': 'Explore the concept space',
+  'concepts.label': 'Label concepts',
+};
