@@ -6,7 +6,7 @@ import globals from 'globals';
 // Dependencies run one way: src/ and server/ may import shared/ and (server only)
 // engine/; shared/ and engine/ import neither; the client never imports the server.
 const noImport = (patterns, message) => ({
-  'no-restricted-imports': ['error', { patterns: patterns.map((group) => ({ group, message })) }],
+  'no-restricted-imports': ['error', { patterns: [{ group: patterns, message }] }],
 });
 
 export default tseslint.config(

@@ -60,7 +60,10 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
 export const FIRM_PERMISSIONS = ['admin.accounts', 'admin.matters'] as const;
 export type FirmPermission = (typeof FIRM_PERMISSIONS)[number];
 
-export function roleCan(role: MatterRole | null | undefined, permission: MatterPermission): boolean {
+export function roleCan(
+  role: MatterRole | null | undefined,
+  permission: MatterPermission,
+): boolean {
   return role != null && MATTER_POLICY[permission].includes(role);
 }
 

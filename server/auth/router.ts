@@ -1,0 +1,40 @@
+import { changePasswordSchema, signInSchema } from '../../shared/schemas/auth';
+import { defineRoute } from '../http/route';
+import { signInRateLimits } from './rate-limit';
+import { changePassword, readMe, signIn, signOut } from './service';
+
+export const authRoutes = [
+  defineRoute({
+    method: 'post',
+    path: '/auth/sign-in',
+    access: 'public',
+    schemas: { body: signInSchema },
+    middleware: () => signInRateLimits(),
+    summary: 'Sign in with e-mail and password',
+    handler: ({ ctx, req, res, body, ip }) => signIn(ctx, req, res, body, ip),
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/auth/sign-out',
+    access: 'public',
+    summary: 'End this browser session',
+    handler: async ({ ctx, req, res, ip }) => {
+      await signOut(ctx, req, res, ip);
+    },
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/auth/me',
+    access: 'signed-in',
+    summary: 'The signed-in user and their matters',
+    handler: ({ ctx, user }) => readMe(ctx.db, user.id),
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/auth/password',
+    access: 'signed-in',
+    schemas: { body: changePasswordSchema },
+    summary: 'Change my password (ends all my other sessions)',
+    handler: ({ ctx, req, res, user, body, ip }) => changePassword(ctx, req, res, user, body, ip),
+  }),
+];

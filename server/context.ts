@@ -1,0 +1,59 @@
+import { mkdirSync } from 'node:fs';
+import type SQLite from 'better-sqlite3';
+import pino, { type Logger } from 'pino';
+import { createAuth, type Auth } from './auth/session';
+import type { Config } from './config';
+import { migrateToLatest, openDatabase, type Db } from './db/database';
+import { createMailer, type Mailer } from './mail/mailer';
+
+/**
+ * Everything a request handler or job needs, built once per process (or per test app).
+ * To add a service (jobs runner, index service): add its member here and build it in
+ * createContext below, registering its shutdown with `closers.push(...)`.
+ */
+export interface AppContext {
+  config: Config;
+  db: Db;
+  /** Raw better-sqlite3 handle (lucia's adapter, bulk BLOB reads). */
+  sqlite: SQLite.Database;
+  auth: Auth;
+  mail: Mailer;
+  logger: Logger;
+  /** Stops services in reverse order of creation, then closes the database. */
+  close(): Promise<void>;
+}
+
+/** Opens and migrates the database and starts the services. */
+export async function createContext(config: Config): Promise<AppContext> {
+  for (const dir of [config.dataDir, config.blobDir, config.tmpDir])
+    mkdirSync(dir, { recursive: true });
+  const logger = pino({ level: config.logLevel, base: undefined });
+  const { db, sqlite } = openDatabase(config.dbFile);
+  const closers: (() => Promise<void> | void)[] = [() => db.destroy()];
+  try {
+    await migrateToLatest(db);
+    const auth = createAuth(sqlite, config);
+    const mail = await createMailer(config, logger);
+    closers.push(() => mail.close());
+
+    // Add new services here (and a closer for each).
+
+    let closed = false;
+    return {
+      config,
+      db,
+      sqlite,
+      auth,
+      mail,
+      logger,
+      async close() {
+        if (closed) return;
+        closed = true;
+        for (const close of closers.reverse()) await close();
+      },
+    };
+  } catch (error) {
+    for (const close of closers.reverse()) await close();
+    throw error;
+  }
+}

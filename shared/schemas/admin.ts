@@ -1,0 +1,54 @@
+import { z } from 'zod';
+import { emailSchema, newPasswordSchema, personNameSchema, text, type PersonRef } from './common';
+
+/** POST /api/admin/users: a new account with a temporary password the admin hands over. */
+export const createUserSchema = z.object({
+  name: personNameSchema,
+  email: emailSchema,
+  temporaryPassword: newPasswordSchema,
+  isAdmin: z.boolean({ error: 'must be true or false' }).default(false),
+});
+export type CreateUserReq = z.infer<typeof createUserSchema>;
+
+/** A user id or an e-mail address naming an existing account. */
+export const userRefSchema = text().trim().min(1, 'is required').max(254, 'is too long');
+
+/** PUT /api/admin/matters/:matterId/lead */
+export const appointLeadSchema = z.object({ lead: userRefSchema });
+export type AppointLeadReq = z.infer<typeof appointLeadSchema>;
+
+export interface AdminUser {
+  id: string;
+  email: string;
+  name: string;
+  isAdmin: boolean;
+  disabled: boolean;
+  createdAt: string;
+  matterCount: number;
+}
+
+export interface AdminUsersResponse {
+  users: AdminUser[];
+}
+
+export interface CreateUserResponse {
+  user: AdminUser;
+}
+
+export interface AdminMatter {
+  id: number;
+  name: string;
+  description: string;
+  controlPrefix: string;
+  createdAt: string;
+  leads: PersonRef[];
+  memberCount: number;
+}
+
+export interface AdminMattersResponse {
+  matters: AdminMatter[];
+}
+
+export interface AppointLeadResponse {
+  matter: AdminMatter;
+}
