@@ -95,9 +95,14 @@ export function readCranfield(dir = cranfieldDir()): CranfieldCollection {
 }
 
 /** The collection in Quarry's eval formats (docs.jsonl, queries.jsonl, TREC qrels). */
-export function cranfieldAsFiles(c: CranfieldCollection): { docs: string; queries: string; qrels: string } {
+export function cranfieldAsFiles(c: CranfieldCollection): {
+  docs: string;
+  queries: string;
+  qrels: string;
+} {
   const qrelLines: string[] = [];
-  for (const [qid, judged] of c.qrels) for (const [docid, grade] of judged) qrelLines.push(`${qid} 0 ${docid} ${grade}`);
+  for (const [qid, judged] of c.qrels)
+    for (const [docid, grade] of judged) qrelLines.push(`${qid} 0 ${docid} ${grade}`);
   return {
     docs: c.docs.map((d) => JSON.stringify(d)).join('\n') + '\n',
     queries: c.queries.map((q) => JSON.stringify(q)).join('\n') + '\n',

@@ -2,10 +2,21 @@
 // in-memory FTS5 database shaped like the server's), then every judged query in
 // the chosen mode, scored with engine/eval/metrics.ts.
 import SQLite from 'better-sqlite3';
-import { ConceptSpace, type BuildDiagnostics, type ConceptSpaceOptions, type DocId } from '../index/concept-space';
+import {
+  ConceptSpace,
+  type BuildDiagnostics,
+  type ConceptSpaceOptions,
+  type DocId,
+} from '../index/concept-space';
 import { KEYWORD_TABLES_DDL, keywordSearch, type KeywordSearchOptions } from '../search/keyword';
 import { search, type KeywordSource, type SearchMode, type SearchOptions } from '../search/search';
-import { evaluateRanking, meanMetrics, type MeanMetrics, type QueryMetrics, type Qrels } from './metrics';
+import {
+  evaluateRanking,
+  meanMetrics,
+  type MeanMetrics,
+  type QueryMetrics,
+  type Qrels,
+} from './metrics';
 import type { EvalDocument, EvalQuery } from './readers';
 
 export interface PreparedCollection {
@@ -23,10 +34,17 @@ export interface PrepareOptions extends ConceptSpaceOptions {
 }
 
 export function partsFor(mode: SearchMode): ('concept' | 'keyword')[] {
-  return mode === 'concept' ? ['concept'] : mode === 'keyword' ? ['keyword'] : ['concept', 'keyword'];
+  return mode === 'concept'
+    ? ['concept']
+    : mode === 'keyword'
+      ? ['keyword']
+      : ['concept', 'keyword'];
 }
 
-export function prepareCollection(docs: readonly EvalDocument[], options: PrepareOptions = {}): PreparedCollection {
+export function prepareCollection(
+  docs: readonly EvalDocument[],
+  options: PrepareOptions = {},
+): PreparedCollection {
   const started = performance.now();
   const parts = options.parts ?? ['concept', 'keyword'];
   let space: ConceptSpace | null = null;
@@ -44,7 +62,9 @@ export function prepareCollection(docs: readonly EvalDocument[], options: Prepar
     const handle = new SQLite(':memory:');
     db = handle;
     for (const ddl of KEYWORD_TABLES_DDL) handle.exec(ddl);
-    const insert = handle.prepare('INSERT INTO document_texts (document_id, title, body) VALUES (?, ?, ?)');
+    const insert = handle.prepare(
+      'INSERT INTO document_texts (document_id, title, body) VALUES (?, ?, ?)',
+    );
     handle.transaction(() => docs.forEach((d, i) => insert.run(i + 1, d.title, d.text)))();
     const ids = docs.map((d) => d.id);
     keyword = (query, limit) =>
@@ -53,7 +73,13 @@ export function prepareCollection(docs: readonly EvalDocument[], options: Prepar
         score: h.score,
       }));
   }
-  return { space, diagnostics, keyword, buildMs: performance.now() - started, close: () => db?.close() };
+  return {
+    space,
+    diagnostics,
+    keyword,
+    buildMs: performance.now() - started,
+    close: () => db?.close(),
+  };
 }
 
 export interface EvaluationRun {
@@ -93,11 +119,18 @@ export function runEvaluation(
       notices.push(`query ${query.id}: no document matched; empty result`);
     }
     const ranking = result.hits.map((h) => String(h.id));
-    perQuery.push({ id: query.id, metrics: evaluateRanking(ranking, relevant), retrieved: ranking.length });
+    perQuery.push({
+      id: query.id,
+      metrics: evaluateRanking(ranking, relevant),
+      retrieved: ranking.length,
+    });
   }
   const judged = new Set(queries.map((q) => q.id));
   const missing = [...qrels.keys()].filter((q) => !judged.has(q));
-  if (missing.length > 0) notices.push(`${missing.length} judged query id(s) not in the queries file (e.g. ${missing[0]})`);
+  if (missing.length > 0)
+    notices.push(
+      `${missing.length} judged query id(s) not in the queries file (e.g. ${missing[0]})`,
+    );
   return {
     mode,
     metrics: meanMetrics(perQuery.map((q) => q.metrics)),

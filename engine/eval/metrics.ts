@@ -32,7 +32,10 @@ export interface MeanMetrics {
   queries: number;
 }
 
-export function evaluateRanking(ranking: readonly string[], relevant: ReadonlyMap<string, number>): QueryMetrics {
+export function evaluateRanking(
+  ranking: readonly string[],
+  relevant: ReadonlyMap<string, number>,
+): QueryMetrics {
   const R = relevant.size;
   let hits = 0;
   let apSum = 0;
@@ -68,6 +71,13 @@ export function evaluateRanking(ranking: readonly string[], relevant: ReadonlyMa
 
 export function meanMetrics(perQuery: readonly QueryMetrics[]): MeanMetrics {
   const n = perQuery.length;
-  const mean = (f: (m: QueryMetrics) => number) => (n > 0 ? perQuery.reduce((s, m) => s + f(m), 0) / n : 0);
-  return { map: mean((m) => m.ap), p10: mean((m) => m.p10), rprec: mean((m) => m.rprec), ndcg10: mean((m) => m.ndcg10), queries: n };
+  const mean = (f: (m: QueryMetrics) => number) =>
+    n > 0 ? perQuery.reduce((s, m) => s + f(m), 0) / n : 0;
+  return {
+    map: mean((m) => m.ap),
+    p10: mean((m) => m.p10),
+    rprec: mean((m) => m.rprec),
+    ndcg10: mean((m) => m.ndcg10),
+    queries: n,
+  };
 }

@@ -66,12 +66,15 @@ export function parseDocsJsonl(text: string, file = 'docs.jsonl'): EvalDocument[
   for (const [lineNo, line] of lines(text)) {
     const o = parseJsonObject(file, lineNo, line);
     const id = idOf(o.id);
-    if (id === null) throw new EvalInputError(`${file}:${lineNo}: "id" must be a non-empty string or a number`);
-    if (seen.has(id)) throw new EvalInputError(`${file}:${lineNo}: document id "${id}" appears twice`);
+    if (id === null)
+      throw new EvalInputError(`${file}:${lineNo}: "id" must be a non-empty string or a number`);
+    if (seen.has(id))
+      throw new EvalInputError(`${file}:${lineNo}: document id "${id}" appears twice`);
     if (o.title !== undefined && typeof o.title !== 'string') {
       throw new EvalInputError(`${file}:${lineNo}: "title" must be a string`);
     }
-    if (typeof o.text !== 'string') throw new EvalInputError(`${file}:${lineNo}: "text" must be a string`);
+    if (typeof o.text !== 'string')
+      throw new EvalInputError(`${file}:${lineNo}: "text" must be a string`);
     seen.add(id);
     docs.push({ id, title: (o.title as string | undefined) ?? '', text: o.text });
   }
@@ -84,9 +87,11 @@ export function parseQueriesJsonl(text: string, file = 'queries.jsonl'): EvalQue
   for (const [lineNo, line] of lines(text)) {
     const o = parseJsonObject(file, lineNo, line);
     const id = idOf(o.id);
-    if (id === null) throw new EvalInputError(`${file}:${lineNo}: "id" must be a non-empty string or a number`);
+    if (id === null)
+      throw new EvalInputError(`${file}:${lineNo}: "id" must be a non-empty string or a number`);
     if (seen.has(id)) throw new EvalInputError(`${file}:${lineNo}: query id "${id}" appears twice`);
-    if (typeof o.text !== 'string') throw new EvalInputError(`${file}:${lineNo}: "text" must be a string`);
+    if (typeof o.text !== 'string')
+      throw new EvalInputError(`${file}:${lineNo}: "text" must be a string`);
     seen.add(id);
     queries.push({ id, text: o.text });
   }
@@ -98,11 +103,15 @@ export function parseQrels(text: string, file = 'qrels.txt'): Qrels {
   for (const [lineNo, line] of lines(text)) {
     const fields = line.split(/\s+/);
     if (fields.length !== 4) {
-      throw new EvalInputError(`${file}:${lineNo}: expected "qid 0 docid grade", got ${fields.length} fields`);
+      throw new EvalInputError(
+        `${file}:${lineNo}: expected "qid 0 docid grade", got ${fields.length} fields`,
+      );
     }
     const [qid, , docid, gradeText] = fields;
     if (!/^-?\d+$/.test(gradeText)) {
-      throw new EvalInputError(`${file}:${lineNo}: grade must be a whole number, got "${gradeText}"`);
+      throw new EvalInputError(
+        `${file}:${lineNo}: grade must be a whole number, got "${gradeText}"`,
+      );
     }
     const grade = Number(gradeText);
     if (grade <= 0) continue;

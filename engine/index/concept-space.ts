@@ -12,6 +12,7 @@
 // docs/RETRIEVAL.md has the Cranfield numbers for both; 'projection' is the default.
 import { analyze, ANALYZER_VERSION } from '../text/analyzer';
 import { buildTermDocumentMatrix } from './term-document';
+import type { CsrMatrix } from '../sparse/csr';
 import { applyWeights, globalWeights, localWeight, WEIGHTINGS, type Weighting } from './weighting';
 import {
   conditionNumber,
@@ -130,10 +131,13 @@ export interface FoldedDocument {
 
 function checkOptions(options: ConceptSpaceOptions) {
   const k = options.k ?? 200;
-  if (!Number.isInteger(k) || k < 1) throw new EngineInputError(`k must be a whole number above 0, got ${k}`);
+  if (!Number.isInteger(k) || k < 1)
+    throw new EngineInputError(`k must be a whole number above 0, got ${k}`);
   const weighting = options.weighting ?? 'log-entropy';
   if (!WEIGHTINGS.includes(weighting)) {
-    throw new EngineInputError(`weighting must be one of ${WEIGHTINGS.join(', ')}, got "${weighting}"`);
+    throw new EngineInputError(
+      `weighting must be one of ${WEIGHTINGS.join(', ')}, got "${weighting}"`,
+    );
   }
   const scaling = options.scaling ?? 'projection';
   if (!SCALINGS.includes(scaling)) {
@@ -172,9 +176,12 @@ export class ConceptSpace {
 
   constructor(data: ConceptSpaceData) {
     const k = data.params.k;
-    if (data.sigma.length !== k) throw new Error(`sigma has ${data.sigma.length} values, expected k = ${k}`);
-    if (data.termVectors.length !== data.terms.length * k) throw new Error('term vectors do not match terms x k');
-    if (data.docVectors.length !== data.docIds.length * k) throw new Error('document vectors do not match docs x k');
+    if (data.sigma.length !== k)
+      throw new Error(`sigma has ${data.sigma.length} values, expected k = ${k}`);
+    if (data.termVectors.length !== data.terms.length * k)
+      throw new Error('term vectors do not match terms x k');
+    if (data.docVectors.length !== data.docIds.length * k)
+      throw new Error('document vectors do not match docs x k');
     this.params = data.params;
     this.k = k;
     this.terms = data.terms;
@@ -185,7 +192,8 @@ export class ConceptSpace {
     data.terms.forEach((term, id) => this.termIndex.set(term, id));
     this.ids = data.docIds.slice();
     this.ids.forEach((id, index) => {
-      if (this.idIndex.has(id)) throw new EngineInputError(`document id ${String(id)} appears twice`);
+      if (this.idIndex.has(id))
+        throw new EngineInputError(`document id ${String(id)} appears twice`);
       this.idIndex.set(id, index);
     });
     this.count = this.ids.length;
@@ -199,31 +207,71 @@ export class ConceptSpace {
     options: ConceptSpaceOptions = {},
   ): { space: ConceptSpace; diagnostics: BuildDiagnostics } {
     const started = performance.now();
-    const { k: requestedK, weighting, scaling, minDf } = checkOptions(options);
-    const notices: string[] = [];
-    if (docs.length === 0) throw new EngineInputError('empty corpus: there are no documents to index');
+    const { minDf } = checkOptions(options);
+    if (docs.length === 0)
+      throw new EngineInputError('empty corpus: there are no documents to index');
     const seen = new Set<DocId>();
     for (const doc of docs) {
-      if (seen.has(doc.id)) throw new EngineInputError(`document id ${String(doc.id)} appears twice`);
+      if (seen.has(doc.id))
+        throw new EngineInputError(`document id ${String(doc.id)} appears twice`);
       seen.add(doc.id);
     }
     const tdm = buildTermDocumentMatrix(
       docs.map((d) => documentText(d)),
       { minDf },
     );
-    const m = tdm.terms.length;
-    const n = tdm.nDocs;
-    if (m === 0) {
+    if (tdm.terms.length === 0) {
       throw new EngineInputError(
         `empty corpus: no term occurs in at least ${minDf} document${minDf === 1 ? '' : 's'}`,
       );
     }
+    return ConceptSpace.fromCounts(
+      tdm.terms,
+      tdm.counts,
+      docs.map((d) => d.id),
+      options,
+      { started, tokensPerDoc: tdm.tokensPerDoc },
+    );
+  }
+
+  /**
+   * Builds the space from a raw-count terms x documents matrix whose rows are the
+   * given (already analysed) terms. build() uses it; tests use it to reproduce
+   * published matrices.
+   */
+  static fromCounts(
+    terms: string[],
+    counts: CsrMatrix,
+    docIds: DocId[],
+    options: ConceptSpaceOptions = {},
+    extra: { started?: number; tokensPerDoc?: Int32Array } = {},
+  ): { space: ConceptSpace; diagnostics: BuildDiagnostics } {
+    const started = extra.started ?? performance.now();
+    const { k: requestedK, weighting, scaling, minDf } = checkOptions(options);
+    const notices: string[] = [];
+    if (counts.rows !== terms.length || counts.cols !== docIds.length) {
+      throw new EngineInputError(
+        `counts are ${counts.rows} x ${counts.cols}, expected ${terms.length} x ${docIds.length}`,
+      );
+    }
+    const m = terms.length;
+    const n = docIds.length;
+    if (n === 0) throw new EngineInputError('empty corpus: there are no documents to index');
+    if (m === 0) throw new EngineInputError('empty corpus: there are no index terms');
+    const df = new Int32Array(m);
+    for (let i = 0; i < m; i++) df[i] = counts.rowPtr[i + 1] - counts.rowPtr[i];
+    const tokensPerDoc = extra.tokensPerDoc ?? new Int32Array(n);
+    if (!extra.tokensPerDoc) {
+      for (let p = 0; p < counts.rowPtr[m]; p++) tokensPerDoc[counts.colIdx[p]] += counts.values[p];
+    }
     options.onProgress?.(0.05);
-    const g = globalWeights(weighting, tdm.counts);
-    const a = applyWeights(weighting, tdm.counts, g);
+    const g = globalWeights(weighting, counts);
+    const a = applyWeights(weighting, counts, g);
     const frobeniusSq = frobeniusNormSq(a);
     if (!(frobeniusSq > 0)) {
-      throw new EngineInputError('empty corpus: every term weight is zero (each term is spread evenly)');
+      throw new EngineInputError(
+        'empty corpus: every term weight is zero (each term is spread evenly)',
+      );
     }
     const bound = Math.min(m, n);
     if (requestedK > bound && options.strictK) {
@@ -242,11 +290,17 @@ export class ConceptSpace {
     let k = Math.min(requestedK, svd.k);
     if (rank < k) {
       if (options.strictK) {
-        throw new EngineInputError(`k = ${requestedK} is above the numerical rank ${rank} of the term-document matrix`);
+        throw new EngineInputError(
+          `k = ${requestedK} is above the numerical rank ${rank} of the term-document matrix`,
+        );
       }
       k = rank;
     }
-    if (k < requestedK) notices.push(`k lowered from ${requestedK} to ${k}, the numerical rank of the term-document matrix`);
+    if (k < requestedK) {
+      notices.push(
+        `k lowered from ${requestedK} to ${k}, the numerical rank of the ${m} x ${n} term-document matrix`,
+      );
+    }
 
     const sigma = svd.s.slice(0, k);
     const termVectors = new Float32Array(m * k);
@@ -268,17 +322,25 @@ export class ConceptSpace {
       }
     }
     let emptyDocuments = 0;
-    for (let j = 0; j < n; j++) if (tdm.tokensPerDoc[j] === 0) emptyDocuments++;
+    for (let j = 0; j < n; j++) if (tokensPerDoc[j] === 0) emptyDocuments++;
     if (emptyDocuments > 0) notices.push(`${emptyDocuments} document(s) contain no index term`);
 
     const space = new ConceptSpace({
-      params: { formatVersion: 1, analyzer: ANALYZER_VERSION, k, requestedK, weighting, minDf, scaling },
-      terms: tdm.terms,
-      df: tdm.df,
+      params: {
+        formatVersion: 1,
+        analyzer: ANALYZER_VERSION,
+        k,
+        requestedK,
+        weighting,
+        minDf,
+        scaling,
+      },
+      terms,
+      df,
       globalWeights: g,
       sigma,
       termVectors,
-      docIds: docs.map((d) => d.id),
+      docIds,
       docVectors,
       foldedIn: new Uint8Array(n),
     });
@@ -394,7 +456,8 @@ export class ConceptSpace {
     const analysed = analyze(text);
     const weighted = this.weightTerms(analysed);
     const vector = this.projectWeighted(weighted);
-    if (this.params.scaling === 'classic') for (let c = 0; c < this.k; c++) vector[c] /= this.sigma[c];
+    if (this.params.scaling === 'classic')
+      for (let c = 0; c < this.k; c++) vector[c] /= this.sigma[c];
     return { vector, weighted, analysed };
   }
 
@@ -426,7 +489,8 @@ export class ConceptSpace {
 
   /** Adds (or replaces) a stored vector, e.g. a folded-in document loaded from the database. */
   putVector(id: DocId, vector: ArrayLike<number>, foldedIn: boolean): number {
-    if (vector.length !== this.k) throw new EngineInputError(`vector has ${vector.length} values, expected ${this.k}`);
+    if (vector.length !== this.k)
+      throw new EngineInputError(`vector has ${vector.length} values, expected ${this.k}`);
     let index = this.idIndex.get(id);
     if (index === undefined) {
       index = this.count;

@@ -8,11 +8,14 @@
 //
 // tf-idf (Salton & Buckley 1988, "Term-weighting approaches in automatic text
 // retrieval"): L = tf_ij, G(i) = log(n / df_i).
+//
+// raw: L = tf_ij, G = 1 (the unweighted counts of Deerwester et al. 1990, Table 2;
+// for reproducing published examples, not for retrieval).
 import type { CsrMatrix } from '../sparse/csr';
 
-export type Weighting = 'log-entropy' | 'tf-idf';
+export type Weighting = 'log-entropy' | 'tf-idf' | 'raw';
 
-export const WEIGHTINGS: readonly Weighting[] = ['log-entropy', 'tf-idf'];
+export const WEIGHTINGS: readonly Weighting[] = ['log-entropy', 'tf-idf', 'raw'];
 
 export function localWeight(weighting: Weighting, tf: number): number {
   return weighting === 'log-entropy' ? Math.log2(1 + tf) : tf;
@@ -23,6 +26,7 @@ export function globalWeights(weighting: Weighting, counts: CsrMatrix): Float64A
   const n = counts.cols;
   const g = new Float64Array(counts.rows);
   const { rowPtr, values } = counts;
+  if (weighting === 'raw') return g.fill(1);
   if (weighting === 'tf-idf') {
     for (let i = 0; i < counts.rows; i++) {
       const df = rowPtr[i + 1] - rowPtr[i];
@@ -56,5 +60,11 @@ export function applyWeights(weighting: Weighting, counts: CsrMatrix, g: Float64
       values[p] = localWeight(weighting, counts.values[p]) * g[i];
     }
   }
-  return { rows: counts.rows, cols: counts.cols, rowPtr: counts.rowPtr, colIdx: counts.colIdx, values };
+  return {
+    rows: counts.rows,
+    cols: counts.cols,
+    rowPtr: counts.rowPtr,
+    colIdx: counts.colIdx,
+    values,
+  };
 }

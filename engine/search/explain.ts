@@ -50,7 +50,8 @@ function termDot(space: ConceptSpace, termId: number, x: ArrayLike<number>): num
   const u = space.termVectors;
   const o = termId * k;
   let s = 0;
-  if (space.scaling === 'classic') for (let c = 0; c < k; c++) s += (u[o + c] / space.sigma[c]) * x[c];
+  if (space.scaling === 'classic')
+    for (let c = 0; c < k; c++) s += (u[o + c] / space.sigma[c]) * x[c];
   else for (let c = 0; c < k; c++) s += u[o + c] * x[c];
   return s;
 }
@@ -66,7 +67,11 @@ function contributions(
   for (let p = 0; p < weighted.ids.length; p++) {
     const id = weighted.ids[p];
     const weight = weighted.weights[p];
-    out.push({ term: space.terms[id], weight, contribution: scale * weight * termDot(space, id, other) });
+    out.push({
+      term: space.terms[id],
+      weight,
+      contribution: scale * weight * termDot(space, id, other),
+    });
   }
   out.sort((a, b) => b.contribution - a.contribution || (a.term < b.term ? -1 : 1));
   return out.slice(0, limit);
@@ -79,7 +84,8 @@ export function explainMatch(
   options: { documentText?: string; limit?: number; nearest?: number } = {},
 ): Explanation {
   const index = space.indexOf(id);
-  if (index === undefined) throw new RangeError(`document ${String(id)} is not in the concept index`);
+  if (index === undefined)
+    throw new RangeError(`document ${String(id)} is not in the concept index`);
   const limit = options.limit ?? 10;
   const { vector: q, weighted } = space.queryVector(query);
   const d = space.docVector(index);
@@ -109,13 +115,23 @@ export function explainMatch(
  * several are treated as a query) or a vector in the space's document coordinates
  * (what ConceptSpace.queryVector returns or a document row).
  */
-export function nearestTerms(space: ConceptSpace, input: string | ArrayLike<number>, n = 10): NearTerm[] {
+export function nearestTerms(
+  space: ConceptSpace,
+  input: string | ArrayLike<number>,
+  n = 10,
+): NearTerm[] {
   const k = space.k;
   let x: Float64Array;
   let power: number;
   let exclude = -1;
   if (typeof input === 'string') {
-    const ids = [...new Set(analyze(input).map((t) => space.termId(t)).filter((t) => t !== undefined))];
+    const ids = [
+      ...new Set(
+        analyze(input)
+          .map((t) => space.termId(t))
+          .filter((t) => t !== undefined),
+      ),
+    ];
     if (ids.length === 0) return [];
     if (ids.length === 1) {
       exclude = ids[0]!;
@@ -139,7 +155,10 @@ export function nearestTerms(space: ConceptSpace, input: string | ArrayLike<numb
   return Array.from(top.indices, (i, r) => ({ term: space.terms[i], similarity: top.scores[r] }));
 }
 
-const scaledCache = new WeakMap<ConceptSpace, Map<number, { rows: Float32Array; invNorms: Float32Array }>>();
+const scaledCache = new WeakMap<
+  ConceptSpace,
+  Map<number, { rows: Float32Array; invNorms: Float32Array }>
+>();
 
 /** Rows of U_k S_k^power with their inverse norms, cached per space. */
 function scaledTermRows(space: ConceptSpace, power: number) {

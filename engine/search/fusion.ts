@@ -42,7 +42,8 @@ export function fuseScores<T>(
   concept: readonly Scored<T>[],
   keywordWeight: number,
 ): FusedHit<T>[] {
-  if (!(keywordWeight >= 0 && keywordWeight <= 1)) throw new RangeError('keywordWeight must be in [0, 1]');
+  if (!(keywordWeight >= 0 && keywordWeight <= 1))
+    throw new RangeError('keywordWeight must be in [0, 1]');
   const kw = minMaxNormalise(keyword);
   const cs = minMaxNormalise(concept);
   const order = new Map<T, number>();
@@ -52,7 +53,12 @@ export function fuseScores<T>(
   for (const id of order.keys()) {
     const k = kw.get(id) ?? null;
     const c = cs.get(id) ?? null;
-    hits.push({ id, score: keywordWeight * (k ?? 0) + (1 - keywordWeight) * (c ?? 0), keyword: k, concept: c });
+    hits.push({
+      id,
+      score: keywordWeight * (k ?? 0) + (1 - keywordWeight) * (c ?? 0),
+      keyword: k,
+      concept: c,
+    });
   }
   hits.sort((a, b) => b.score - a.score || order.get(a.id)! - order.get(b.id)!);
   return hits;

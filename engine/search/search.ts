@@ -78,12 +78,21 @@ export function conceptRanking(
 ): { ranked: Scored<DocId>[]; knownTerms: string[]; unknownTerms: string[] } {
   const { vector, weighted } = space.queryVector(query);
   const dims = Math.min(options.dims ?? space.k, space.k);
-  const top = topCosine(space.docMatrix, space.k, space.nDocs, space.inverseNorms(dims), vector, depth, {
-    dims,
-    allow: options.allow,
-  });
+  const top = topCosine(
+    space.docMatrix,
+    space.k,
+    space.nDocs,
+    space.inverseNorms(dims),
+    vector,
+    depth,
+    {
+      dims,
+      allow: options.allow,
+    },
+  );
   const ranked: Scored<DocId>[] = [];
-  for (let r = 0; r < top.indices.length; r++) ranked.push({ id: space.docId(top.indices[r]), score: top.scores[r] });
+  for (let r = 0; r < top.indices.length; r++)
+    ranked.push({ id: space.docId(top.indices[r]), score: top.scores[r] });
   return {
     ranked,
     knownTerms: Array.from(weighted.ids, (id) => space.terms[id]),
@@ -91,13 +100,18 @@ export function conceptRanking(
   };
 }
 
-export function search(space: ConceptSpace | null, query: string, options: SearchOptions): SearchResult {
+export function search(
+  space: ConceptSpace | null,
+  query: string,
+  options: SearchOptions,
+): SearchResult {
   const limit = options.limit ?? 50;
   const offset = options.offset ?? 0;
   const depth = Math.max(options.depth ?? 1000, limit + offset);
   const notices: string[] = [];
   const mode = options.mode;
-  if (!SEARCH_MODES.includes(mode)) throw new RangeError(`mode must be one of ${SEARCH_MODES.join(', ')}`);
+  if (!SEARCH_MODES.includes(mode))
+    throw new RangeError(`mode must be one of ${SEARCH_MODES.join(', ')}`);
   if ((mode === 'concept' || mode === 'hybrid') && !space) {
     throw new Error(`${mode} search needs a concept space; none is built yet`);
   }
@@ -108,12 +122,17 @@ export function search(space: ConceptSpace | null, query: string, options: Searc
   let unknown: string[] = [];
   let concept: Scored<DocId>[] = [];
   if (space && mode !== 'keyword') {
-    const dims = mode === 'hybrid' ? (options.hybrid?.conceptDims ?? DEFAULT_HYBRID.conceptDims) : space.k;
-    const result = conceptRanking(space, query, depth, { dims, allow: allowMask(space, options.allow) });
+    const dims =
+      mode === 'hybrid' ? (options.hybrid?.conceptDims ?? DEFAULT_HYBRID.conceptDims) : space.k;
+    const result = conceptRanking(space, query, depth, {
+      dims,
+      allow: allowMask(space, options.allow),
+    });
     concept = result.ranked;
     known = result.knownTerms;
     unknown = result.unknownTerms;
-    if (known.length === 0) notices.push('no query term is in the concept index; concept score is empty');
+    if (known.length === 0)
+      notices.push('no query term is in the concept index; concept score is empty');
   }
   let keyword: Scored<DocId>[] = [];
   if (options.keyword && mode !== 'concept') {
@@ -134,7 +153,13 @@ export function search(space: ConceptSpace | null, query: string, options: Searc
     }));
   }
   if (hits.length === 0 && notices.length === 0) notices.push('no document matches the query');
-  return { mode, hits: hits.slice(offset, offset + limit), knownTerms: known, unknownTerms: unknown, notices };
+  return {
+    mode,
+    hits: hits.slice(offset, offset + limit),
+    knownTerms: known,
+    unknownTerms: unknown,
+    notices,
+  };
 }
 
 /** "More like this": documents nearest to a stored document's vector. */
@@ -144,7 +169,8 @@ export function similarDocuments(
   options: { limit?: number; allow?: Uint8Array | ReadonlySet<DocId> } = {},
 ): SearchHit[] {
   const index = space.indexOf(id);
-  if (index === undefined) throw new RangeError(`document ${String(id)} is not in the concept index`);
+  if (index === undefined)
+    throw new RangeError(`document ${String(id)} is not in the concept index`);
   const top = topCosine(
     space.docMatrix,
     space.k,

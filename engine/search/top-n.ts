@@ -97,7 +97,8 @@ export function topCosine(
   const q = new Float64Array(dims);
   let qn = 0;
   for (let c = 0; c < dims; c++) qn += query[c] * query[c];
-  if (!(qn > 0) || limit <= 0 || count === 0) return { indices: new Int32Array(0), scores: new Float64Array(0) };
+  if (!(qn > 0) || limit <= 0 || count === 0)
+    return { indices: new Int32Array(0), scores: new Float64Array(0) };
   const qInv = 1 / Math.sqrt(qn);
   for (let c = 0; c < dims; c++) q[c] = query[c] * qInv;
   const heap = new MinHeap(Math.min(limit, count));
