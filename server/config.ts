@@ -5,6 +5,8 @@ import { UPLOAD_DEFAULTS } from '../shared/limits';
 /** Everything the server reads from the environment, validated once at start-up. */
 export interface Config {
   port: number;
+  /** First firm admin, created on an empty database when demo mode is off. */
+  bootstrapAdmin: { email: string; password: string } | null;
   dataDir: string;
   dbFile: string;
   blobDir: string;
@@ -45,6 +47,9 @@ const flag = z
 // One entry per variable: the variable's name is the key, so an error names it.
 const envSchema = z.object({
   PORT: int(0).max(65535).default(3000),
+  QUARRY_API_PORT: int(0).max(65535).default(3001),
+  QUARRY_ADMIN_EMAIL: z.email().optional(),
+  QUARRY_ADMIN_PASSWORD: z.string().min(12, 'must be at least 12 characters').optional(),
   QUARRY_DATA_DIR: z.string().min(1).default('./data'),
   SMTP_URL: z
     .string()
@@ -104,7 +109,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const e = parsed.data;
   const dataDir = resolve(e.QUARRY_DATA_DIR);
   return {
-    port: e.PORT,
+    // `npm run dev` runs the API beside Vite on QUARRY_API_PORT (Vite proxies /api to it).
+    port: e.QUARRY_DEV ? e.QUARRY_API_PORT : e.PORT,
+    bootstrapAdmin:
+      e.QUARRY_ADMIN_EMAIL && e.QUARRY_ADMIN_PASSWORD
+        ? { email: e.QUARRY_ADMIN_EMAIL.toLowerCase(), password: e.QUARRY_ADMIN_PASSWORD }
+        : null,
     dataDir,
     dbFile: join(dataDir, 'quarry.db'),
     blobDir: join(dataDir, 'blobs'),
