@@ -32,6 +32,7 @@ export const FAILURE_REASONS = [
   'empty file',
   'file exceeds the size limit',
   'extraction timed out',
+  'extraction ran out of memory',
   'file could not be read',
   // Not a failure of the file: a zip goes to expandArchive, not extractFile.
   'archive must be expanded, not extracted',
