@@ -15,6 +15,15 @@ export const AUDIT_ACTIONS = [
   'matter.created',
   'matter.lead_appointed',
   'user.created',
+  'custodian.created',
+  'document.uploaded',
+  'document.failed',
+  'document.retried',
+  'document.deleted',
+  'document.original_downloaded',
+  'index.rebuild_requested',
+  'index.rebuilt',
+  'index.rebuild_failed',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -32,4 +41,13 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'matter.created': 'Created the matter',
   'matter.lead_appointed': 'Appointed a lead',
   'user.created': 'Created an account',
+  'custodian.created': 'Added a custodian',
+  'document.uploaded': 'Uploaded documents',
+  'document.failed': 'A document failed extraction',
+  'document.retried': 'Retried a document',
+  'document.deleted': 'Deleted a document',
+  'document.original_downloaded': 'Downloaded an original',
+  'index.rebuild_requested': 'Asked for an index rebuild',
+  'index.rebuilt': 'Rebuilt the index',
+  'index.rebuild_failed': 'Index rebuild failed',
 };
