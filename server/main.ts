@@ -43,7 +43,9 @@ async function main(): Promise<void> {
   );
   sweep.unref();
 
-  const url = `http://localhost:${config.port}`;
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : config.port;
+  const url = `http://localhost:${port}`;
   console.log(
     `\nQuarry is running on ${url}${config.devMode ? ' (API for the Vite dev server on http://localhost:5173)' : ''}`,
   );

@@ -89,6 +89,10 @@ export function mountRoutes(
     if (seen.has(key)) throw new Error(`route declared twice: ${key}`);
     seen.add(key);
     assertKnownAccess(spec.access, key);
+    // Anything under a matter is scoped to its members (or firm admins on /admin routes).
+    if (/:matterId(\/|$)/.test(spec.path) && typeof spec.access === 'string') {
+      throw new Error(`${key}: a route with :matterId needs a { matter } or { firm } access rule`);
+    }
     const handler: MarkedHandler = async (req, res) => {
       const parsed = res.locals.input as ParsedInput;
       const result = await spec.handler({
