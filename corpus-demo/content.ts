@@ -18,6 +18,9 @@ export interface TopicContent {
   subjects: string[];
   formal: string[];
   chatty: string[];
+  /** Paragraphs that name the thing plainly and in code at once (analyses, candid e-mails). */
+  bridgeFormal: string[];
+  bridgeChatty: string[];
 }
 
 export const TOPICS: TopicContent[] = [
@@ -58,6 +61,14 @@ export const TOPICS: TopicContent[] = [
       'Between us, the quality stuff is real but it is also convenient. The decision to end the deal was made well before the last batch of complaints. I would not want to be asked about the dates under oath.',
       'Ending the arrangement early costs us the volume rebate for the year, so finance will want to know why. Have a think about how we explain the exit before the budget review.',
     ],
+    bridgeFormal: [
+      'The termination of the supply agreement was served under clause 14.2 for material breach, but the trial orders placed with Ostler & Vane, the wind-down schedule and the transition plan were all drafted before the cure period expired.',
+      'Whether Brackenfield could walk away from the Master Supply Agreement depends on the cure period: if the non-conformances were remedied within thirty days, the notice of termination was premature and amounts to a repudiation.',
+    ],
+    bridgeChatty: [
+      'The exit was planned long before the notice, {to}. Trial orders with another mill, a wind-down schedule, the lot. Terminating the agreement for breach was the tidy way out.',
+      "Pulling the plug on Harrowgate under 14.2 only works if the breach is real. Otherwise we've ended the supply agreement without a right to, and they'll sue for the lost years.",
+    ],
   },
   {
     id: 'quality',
@@ -82,7 +93,7 @@ export const TOPICS: TopicContent[] = [
       'Complaints from retail customers have risen sharply. Since September we have logged reports of grit, black specks and, in one case, a length of wire in a finished loaf. Every complaint has been traced to flour from Harrowgate lots received in the same fortnight.',
       'Corrective action: the mill will replace sifter screens, increase magnet checks to every shift and hold each lot until laboratory release. The Head of Quality Assurance will report weekly on rejected loads and open non-conformances.',
       'The laboratory retains samples of every lot for twelve months. Retained samples for lots {lot} and the two adjacent lots should be tested independently so that the contamination findings can be confirmed or rebutted.',
-      'Off-specification product must not be reworked into other blends. Any lot that fails the intake tests is to be rejected and its disposal recorded, so that no defective flour re-enters the supply chain.',
+      'Off-specification product must not be reworked into other blends. Any lot that fails the intake tests is to be rejected and its disposal logged, so that no defective flour re-enters the supply chain.',
       'Food safety risk assessment: the presence of metal fragments in a milled ingredient is a critical hazard. A product recall would be required if affected loaves reached the shelf, and the bakery has placed all Harrowgate lots on positive release.',
     ],
     chatty: [
@@ -94,6 +105,15 @@ export const TOPICS: TopicContent[] = [
       'The sifters at Kestrel Lane are knackered, {to}. I told Priya in August. Screens are torn, the magnets never get cleaned on nights and the pest contractor has not been in for weeks.',
       'Can you pull together every complaint and rejection since September into one table? Dates, lots, what was found. The lawyers will ask for it and I would rather we had it first.',
       "Between you and me, some of those loads were borderline and we let them through because we were short. I'd rather that didn't come out if they push back on the contamination numbers.",
+    ],
+    bridgeFormal: [
+      'Contaminated flour reached the Dunsford bakery in three ways: tanker loads with insect fragments, weevils and metal swarf in the sieve residue; silo product that left black specks in the crumb on line 3; and finished loaves that drew foreign-body complaints on the careline.',
+      'Each contaminated flour delivery is documented twice: once in a non-conformance report at the intake, with the sieve residue and magnet findings, and again in the night shift log when dough from the silo has to be binned and the mixers stripped.',
+      'The wholemeal blend lots behind the customer complaints, a piece of wire in a farmhouse bloomer among them, were all flour milled at Kestrel Lane in the same fortnight; retained samples of each lot show the same contamination.',
+    ],
+    bridgeChatty: [
+      'More contaminated flour, {to}. Night shift binned a whole run on line 3 for black specks, the silo filter was full of grit and insect casings, and the careline has another wire-in-a-bloomer complaint.',
+      "If the flour is contaminated at the mill, the weevils and swarf end up in the tanker, then the silo, then in somebody's farmhouse bloomer. That's why I keep rejecting loads at the gate.",
     ],
   },
   {
@@ -131,6 +151,15 @@ export const TOPICS: TopicContent[] = [
       "Pricing's agreed at £{price}, and the usual credit on top once the quarter closes. Let's keep the side arrangement between the three of us.",
       'The auditors have picked up the marketing support line. Two hundred grand over three years and no invoices from anyone but Wendle. I need an answer before Thursday.',
     ],
+    bridgeFormal: [
+      'The Sheaf scheme paid kickbacks to the buyer each quarter: a loyalty credit of one and a half per cent of invoiced value, routed through Wendle Advisory as a consultancy fee for market insight and never shown on a credit note.',
+      "Wendle Advisory's invoices describe market insight consultancy services for each quarter. They are the paper trail of the kickbacks: the fees match the Sheaf loyalty credit to the pound, are paid by bank transfer within seven days, and Wendle is not VAT registered.",
+      'Hospitality for the buyer, including the motor cruiser at the marina over the August bank holiday, was part of the same arrangement as the Sheaf kickbacks and was likewise kept out of the contract file.',
+    ],
+    bridgeChatty: [
+      "Call it Sheaf, call it a loyalty credit, call it consultancy through Wendle: it's a kickback to their buyer and we both know it. The boat at the marina doesn't help.",
+      'Bernard says the Wendle invoices come in every quarter, same fee as the Sheaf credit, paid within seven days. If those are kickbacks to the buyer we are all in trouble.',
+    ],
   },
   {
     id: 'recruitment',
@@ -165,6 +194,15 @@ export const TOPICS: TopicContent[] = [
       'Word on the floor is that Ostler & Vane will take anyone from our QA team who can start by May. Same month Brackenfield moves across. Work that one out.',
       "I've told the lab supervisors that nobody is leaving on my watch without a conversation with me first. But morale is on the floor since Rafe went.",
       'IT say his laptop shows a big copy to a USB stick the week before he resigned. The spec folder, all the customer files. We need to get lawyers on this today.',
+    ],
+    bridgeFormal: [
+      "Ostler & Vane's poaching of our staff followed a pattern: a headhunter's call, a golden hello or signing bonus, a technical role at a higher salary, and a promise to cover any garden leave. Mina Sorrell and Tobias Renn were both sounded out after Rafe Dunmore's resignation.",
+      "Exit interviews with laboratory leavers show that the poaching of staff was coordinated: each was approached by the same headhunter, offered a salary well above ours and told there was 'room for all of us' at Ostler & Vane.",
+      'The poaching of laboratory staff matters to the contract claim: the head of quality, his analysts and their knowledge of the Brackenfield specification moved to Ostler & Vane in the same month as the bakery volume.',
+    ],
+    bridgeChatty: [
+      "They're poaching our staff one by one, {to}. First Rafe as Head of Technical, now Mina, and Tobias has been sounded out. Golden hellos all round and they'll pay for the garden leave.",
+      "Rafe's resignation letter says 'another company in the milling sector'. Everyone knows it's Ostler & Vane, and that the poaching of our lab staff started with him.",
     ],
   },
   {
@@ -201,6 +239,15 @@ export const TOPICS: TopicContent[] = [
       'Shared drive is a mess, half of it is old QA stuff from before Rafe left. I had a purge this morning, deleted the 2019 and 2020 folders. Much tidier now.',
       'Is there any way to get the deleted QA folders back? Legal are asking for the 2020 sifter check sheets and I think they went in the clear-out.',
     ],
+    bridgeFormal: [
+      'The destruction of records at Kestrel Lane took three forms: laboratory binders and check sheets put into confidential waste consoles and shredded on site by Pennock Secure Waste; the two QA laptops wiped and reimaged; and the weekly backup tapes overwritten early.',
+      "Pennock Secure Waste's certificate of secure disposal confirms that fourteen consoles of records were shredded on site on 1 April. The helpdesk ticket for reimaging the laptops and overwriting the backup tapes gives 'spring clean' as the reason for what was, in substance, the destruction of records.",
+      'The mill manager described the destruction of records as housekeeping before the visitors arrived. The visitors were the forensic team instructed to collect the logger printouts, sifter and magnet check sheets and laboratory binders.',
+    ],
+    bridgeChatty: [
+      "So 'housekeeping' meant destroying the records. Binders into the shredding van, laptops reimaged, backup tapes overwritten. And the visitors she mentioned were our own lawyers.",
+      'The destruction of the lab records was no accident, {to}. Somebody booked the shredding van, raised a helpdesk ticket to wipe the laptops and asked for the backup tapes to roll over early, all in the same week.',
+    ],
   },
   {
     id: 'concealment',
@@ -221,18 +268,27 @@ export const TOPICS: TopicContent[] = [
       'Minutes of the meeting of the Board of Directors of {hm}. Item 7, trading update: the Managing Director reported that trading was in line with budget. No reference was made to the rejected deliveries or to the notice of termination received on 15 March.',
       'The non-executive directors were not told of the Brackenfield rejections, the notice of termination or the internal audit findings before the April meeting. Information of this kind should have been placed before the full board.',
       'Hiding known problems from the board, the auditors or the insurers exposes the directors personally. A director who conceals a material risk from his colleagues is unlikely to have acted in good faith in the interests of the company.',
-      'The draft minutes circulated on 23 April recorded a discussion of the Brackenfield dispute under item 9. The approved minutes omit that item entirely. The Company Secretary has been asked to explain the change and on whose instruction it was made.',
+      'The draft minutes circulated on 23 April included a discussion of the Brackenfield dispute under item 9. The approved minutes omit that item entirely. The Company Secretary has been asked to explain the change and on whose instruction it was made.',
       'The insurance proposal form for the product liability renewal answered "no" to the question whether the company was aware of any circumstance likely to give rise to a claim. At that date the company held at least eleven open non-conformance reports.',
       "The auditors have asked whether any matters were discussed by directors outside formal board meetings that should have been disclosed. A full and accurate answer will require the Chairman's private correspondence with the Managing Director.",
       'Governance review: papers for the board must contain the information the directors need, including bad news. Oral updates "not to be minuted" are not a substitute for written disclosure of material risks.',
     ],
     chatty: [
       "Malcolm, let's not frighten the horses. Verbal update only on Thursday and I'd rather the detail stayed off the minutes. We can bring the board up to speed once we know the size of the problem.",
-      "Lena, please take item 9 out of the draft minutes. The Chairman doesn't want it recorded. Just say trading in line with budget.",
+      "Lena, please take item 9 out of the draft minutes. The Chairman doesn't want it in there. Just say trading in line with budget.",
       "The non-execs will go spare if they see the NCR tally. Keep it out of the pack for now, we'll deal with it after the insurance renewal.",
       "I've been asked to change the minutes after they were agreed in the room. I'm not happy doing it without something in writing. Can you confirm?",
       "If the auditors ask about Wendle, tell them it's a marketing consultancy and leave it there. The fewer people who know the whole picture, the better.",
       "We're hiding this from the board and it's going to come out, {to}. When it does, it's us who'll be asked why the directors were the last to know.",
+    ],
+    bridgeFormal: [
+      'The board was kept in the dark by simple means: verbal updates only, nothing in the board papers or the pack, and the Dunsford discussion taken out of the draft minutes before circulation. Hiding problems from the board in this way left the non-executives, the auditors and the insurers unaware of the size of the hole.',
+      "The Company Secretary was told to remove item 9 from the draft minutes so that the trading update read 'in line with budget'. That instruction, from the Chairman, is central to the allegation that problems were hidden from the board.",
+      'Hiding problems from the board continued up to the insurance renewal: the NCR tally was kept out of the pack and the renewal form answered no to known circumstances.',
+    ],
+    bridgeChatty: [
+      "We can't keep hiding problems from the board, {to}. Verbal updates, nothing in the pack, item 9 out of the minutes. The non-execs will find out at the insurance renewal or from the auditors.",
+      'Geoffrey wants Dunsford kept off the minutes and out of the papers until after the renewal. Hiding that sort of problem from the board is exactly what gets directors disqualified.',
     ],
   },
 ];

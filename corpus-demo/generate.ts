@@ -138,42 +138,42 @@ const CAST: Record<TopicId, TopicCast> = {
     correspondents: ['nadia', 'bernard', 'lena'],
     from: '2021-01-11',
     to: '2021-06-30',
-    count: 32,
+    count: 22,
   },
   quality: {
     holders: ['hollis', 'rafe', 'priya', 'simon', 'malcolm'],
     correspondents: ['tobias', 'marcus'],
     from: '2020-08-03',
     to: '2021-03-12',
-    count: 36,
+    count: 22,
   },
   rebates: {
     holders: ['edwina', 'simon', 'malcolm', 'daria'],
     correspondents: ['bernard'],
     from: '2019-06-03',
     to: '2021-05-28',
-    count: 30,
+    count: 22,
   },
   recruitment: {
     holders: ['rafe', 'malcolm', 'priya'],
     correspondents: ['fenella', 'corin', 'tobias'],
     from: '2021-01-05',
     to: '2021-05-28',
-    count: 28,
+    count: 22,
   },
   records: {
     holders: ['priya', 'lena', 'malcolm', 'rafe'],
     correspondents: ['jed', 'tobias', 'nadia'],
     from: '2021-03-15',
     to: '2021-06-18',
-    count: 28,
+    count: 22,
   },
   concealment: {
     holders: ['geoffrey', 'malcolm', 'lena', 'edwina'],
     correspondents: ['bernard'],
     from: '2021-03-22',
     to: '2021-06-11',
-    count: 26,
+    count: 22,
   },
 };
 
@@ -187,9 +187,15 @@ const RELATED: Record<TopicId, TopicId[]> = {
   concealment: ['rebates', 'records'],
 };
 
-const NOISE_COUNT = 100;
+const NOISE_COUNT = 150;
 const CUSTODIANS = (Object.keys(PEOPLE) as PersonKey[]).filter((key) => PEOPLE[key].custodian);
-const NOISE_SENDERS: PersonKey[] = ['orla', 'fenella', 'jed', 'marcus', 'bernard'];
+/** Who sends office notices, by organisation (notices stay inside their company). */
+const NOISE_SENDERS: Record<string, PersonKey[]> = {
+  [HARROWGATE]: ['orla', 'fenella', 'jed', 'bernard'],
+  [BRACKENFIELD]: ['marcus'],
+};
+/** Share of topic documents that carry one bridge paragraph. */
+const BRIDGE_RATE = 0.5;
 const WEEKDAYS = ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday'];
 const ORDINALS = ['third', 'fourth', 'fifth', 'sixth', 'seventh'];
 
@@ -342,6 +348,13 @@ function planFormal(
   const ctx = { to: recipient.first, from: author.first };
   const title = fillTemplate(rng, rng.pick(topic.subjects), ctx).replace(/^Re: /, '');
   const paragraphs = pickTopicParagraphs(rng, topic, 'formal', rng.int(3, 5), ctx);
+  if (rng.chance(BRIDGE_RATE)) {
+    paragraphs.splice(
+      rng.int(0, paragraphs.length),
+      0,
+      fillTemplate(rng, rng.pick(topic.bridgeFormal), ctx),
+    );
+  }
   if (extra)
     paragraphs.splice(
       rng.int(1, paragraphs.length),
@@ -459,6 +472,8 @@ export function planDemoCorpus(): PlannedDocument[] {
       const subject =
         rng.chance(0.35) && !subjectBase.startsWith('Re: ') ? `Re: ${subjectBase}` : subjectBase;
       const paragraphs = pickTopicParagraphs(rng, topic, 'chatty', rng.int(2, 3), ctx);
+      if (rng.chance(BRIDGE_RATE))
+        paragraphs.push(fillTemplate(rng, rng.pick(topic.bridgeChatty), ctx));
       if (extra) paragraphs.push(fillTemplate(rng, rng.pick(extra.chatty), ctx));
       if (rng.chance(0.3)) paragraphs.push(fillTemplate(rng, rng.pick(topic.formal), ctx));
       const format = rng.pick([
@@ -592,7 +607,7 @@ export function planDemoCorpus(): PlannedDocument[] {
     const group = rng.pick(NOISE);
     const holderKey = CUSTODIANS[i % CUSTODIANS.length];
     const holder = person(holderKey);
-    const sender = person(rng.pick(NOISE_SENDERS));
+    const sender = person(rng.pick(NOISE_SENDERS[holder.organisation]));
     const date = randomDate(rng, '2019-06-03', '2021-06-30');
     const title = rng.pick(group.subjects);
     const paragraphs = rng.sample(group.paragraphs, rng.int(1, group.paragraphs.length));

@@ -183,6 +183,7 @@ export const TARGETS: TargetDocument[] = [
       'Site: Dunsford bakery, intake bay 2. Supplier: Harrowgate Mills Ltd, Kestrel Lane. Product: wholemeal blend, lot HM-4471, 22 tonnes in bulk tanker.',
       'Findings: sieve residue contained insect fragments and two live weevils. The intake magnet recovered fine metal swarf. Moisture measured at 15.8 per cent against a specification maximum of 14.5 per cent; musty odour noted.',
       "Disposition: load rejected at the gate, quarantined and returned to the supplier at the supplier's cost. Retained sample held in the Dunsford laboratory.",
+      'History: the third rejection of this blend in eight weeks. Earlier lots left black specks in the crumb on line 3 and drew a foreign-body complaint on the careline. Supplier asked to quarantine every lot milled at Kestrel Lane in the same fortnight.',
       'Raised by: Hollis Wren, Technical Director. Supplier notified: 17 November 2020, 11:40.',
     ],
   },
