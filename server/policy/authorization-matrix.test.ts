@@ -5,6 +5,7 @@
 // blueprint), then checked against a real request. A route mounted without a
 // declaration fails the inventory test, so new features are covered automatically.
 import { randomBytes } from 'node:crypto';
+import type { Router } from 'express';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { FIRM_PERMISSIONS, MATTER_POLICY, MATTER_ROLES, type MatterRole } from '../../shared/roles';
 import {
@@ -87,7 +88,7 @@ describe('route inventory', () => {
   test('the inventory notices a route mounted behind the declarations', async () => {
     const other = await createTestApp();
     try {
-      (other.app.locals.apiRouter as import('express').Router).get('/rogue', (_req, res) => {
+      (other.app.locals.apiRouter as Router).get('/rogue', (_req, res) => {
         res.json({ ok: true });
       });
       const undeclared = listMountedRoutes(other.app).filter(
@@ -203,11 +204,9 @@ describe('a non-member cannot tell a hidden matter from a missing one', () => {
   )('%s', async (_name, spec) => {
     const hidden = await callAs('non-member', spec);
     const missing = await callAs('lead', spec, 987654);
-    const malformed = await (
-      await t.agentFor(users.lead)
-    )
-      [spec.method](urlFor(spec, matter.id).replace(`/${matter.id}`, '/abc'))
-      .send({});
+    const leadAgent = await t.agentFor(users.lead);
+    const malformedUrl = urlFor(spec, matter.id).replace(`/${matter.id}`, '/abc');
+    const malformed = await leadAgent[spec.method](malformedUrl).send({});
     expect(missing.status).toBe(404);
     expect(hidden.body).toEqual(missing.body);
     expect(malformed.status).toBe(404);
