@@ -221,15 +221,33 @@ describe('extractFile: hostile and broken inputs', () => {
     });
   });
 
-  it('random bytes named .pdf are "unsupported type" (no %PDF- header, ISO 32000-1 §7.5.2)', async () => {
+  it('random bytes named .pdf are "not a valid PDF" (no %PDF- header, ISO 32000-1 §7.5.2); named .bin, "unsupported type"', async () => {
     const noise = Buffer.alloc(8192);
     let x = 987654321;
     for (let i = 0; i < noise.length; i += 1)
       noise[i] = (x = (x * 1103515245 + 12345) & 0x7fffffff) >> 16;
     expect(await extractBytes(noise, 'report.pdf')).toEqual({
       ok: false,
+      kind: 'pdf',
+      mime: 'application/pdf',
+      reason: 'not a valid PDF',
+    });
+    expect(await extractBytes(noise, 'report.bin')).toEqual({
+      ok: false,
       kind: 'unknown',
       mime: 'application/octet-stream',
+      reason: 'unsupported type',
+    });
+  });
+
+  it('a PNG named .pdf is what its bytes say: "unsupported type"', async () => {
+    const png = Buffer.concat([
+      Buffer.from('89504e470d0a1a0a0000000d49484452', 'hex'),
+      Buffer.alloc(200),
+    ]);
+    expect(await extractBytes(png, 'scan.pdf')).toMatchObject({
+      ok: false,
+      kind: 'unknown',
       reason: 'unsupported type',
     });
   });
@@ -256,18 +274,31 @@ describe('extractFile: hostile and broken inputs', () => {
     });
   });
 
-  it('a DOCX that is not a zip is unsupported; a zip without word/document.xml is a zip, not a DOCX', async () => {
+  it('a DOCX that is not a zip (no PK signature, PKWARE APPNOTE §4.3.7) is "not a valid DOCX"', async () => {
+    const noise = Buffer.alloc(4096);
+    let x = 42;
+    for (let i = 0; i < noise.length; i += 1)
+      noise[i] = (x = (x * 1103515245 + 12345) & 0x7fffffff) >> 16;
+    expect(await extractBytes(noise, 'contract.docx')).toEqual({
+      ok: false,
+      kind: 'docx',
+      mime: 'application/vnd.openxmlformats-officedocument.wordprocessingml.document',
+      reason: 'not a valid DOCX',
+    });
+    // Readable text is indexed as text whatever it is called: the content decides.
     const text = await extractBytes(
       Buffer.from('This is not a Word file at all, just text.'),
-      'contract.docx',
+      'notes.docx',
     );
-    expect(text).toMatchObject({ ok: true, kind: 'text' }); // readable text is indexed as text, whatever its name
-    const binary = Buffer.concat([
+    expect(text).toMatchObject({ ok: true, kind: 'text' });
+    // A legacy Word 97-2003 (OLE2 compound file) renamed .docx is another format altogether.
+    const ole2 = Buffer.concat([
       Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1]),
       Buffer.alloc(512),
     ]);
-    expect(await extractBytes(binary, 'legacy.docx')).toMatchObject({
+    expect(await extractBytes(ole2, 'legacy.docx')).toMatchObject({
       ok: false,
+      kind: 'unknown',
       reason: 'unsupported type',
     });
   });

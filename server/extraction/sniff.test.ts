@@ -109,6 +109,16 @@ describe('sniffFile decides by content, not by extension', () => {
     for (let i = 0; i < noise.length; i += 1)
       noise[i] = (x = (x * 1103515245 + 12345) & 0x7fffffff) >> 16;
     expect((await sniffBytes(noise, 'data.txt')).kind).toBe('unknown');
+    // Unrecognisable bytes that claim to be a PDF or DOCX keep that kind, flagged, so that
+    // extraction can report "not a valid PDF/DOCX".
+    expect(await sniffBytes(noise, 'report.pdf')).toMatchObject({
+      kind: 'pdf',
+      fromExtensionOnly: true,
+    });
+    expect(await sniffBytes(noise, 'memo.docx')).toMatchObject({
+      kind: 'docx',
+      fromExtensionOnly: true,
+    });
   });
 });
 

@@ -143,7 +143,11 @@ export function sniffHead(
   if (binary) return result('unknown', { detail: binary.detail });
 
   const charset = detectTextCharset(head, truncated);
-  if (!charset) return result('unknown', { detail: 'binary data' });
+  if (!charset) {
+    if (extension === '.pdf') return result('pdf', { fromExtensionOnly: true });
+    if (extension === '.docx') return result('docx', { fromExtensionOnly: true });
+    return result('unknown', { detail: 'binary data' });
+  }
   const text = iconv.decode(head, charset, { stripBOM: true });
 
   if (looksLikeEmail(text, extension)) return result('email', { charset });

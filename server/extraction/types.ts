@@ -46,6 +46,12 @@ export interface SniffResult {
   charset?: string;
   /** For kind "unknown": what the bytes look like, e.g. "PNG image", for logs and tooltips. */
   detail?: string;
+  /**
+   * True when the bytes matched no known format and the kind comes from the extension alone
+   * (unrecognisable bytes named .pdf or .docx); extraction then reports the file as invalid
+   * ("not a valid PDF" / "not a valid DOCX"), which tells a paralegal more than "unsupported".
+   */
+  fromExtensionOnly?: boolean;
 }
 
 /** An e-mail attachment, returned so the caller stores and extracts it as a child document. */
