@@ -1,5 +1,4 @@
 import { type FormEvent, useState } from 'react';
-import { useNavigate } from 'react-router';
 import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '../../../shared/limits';
 import {
   Button,
@@ -47,7 +46,6 @@ export function AccountRoute() {
 
 function ChangePasswordForm() {
   const change = useChangePassword();
-  const navigate = useNavigate();
   const [currentPassword, setCurrent] = useState('');
   const [newPassword, setNew] = useState('');
   const [repeat, setRepeat] = useState('');
@@ -67,8 +65,12 @@ function ChangePasswordForm() {
     change.mutate(
       { currentPassword, newPassword },
       {
-        // Changing the password ends every session, this one included.
-        onSuccess: () => void navigate('/sign-in?changed=1', { replace: true }),
+        // The server ends every other session and starts a fresh one for this browser.
+        onSuccess: () => {
+          setCurrent('');
+          setNew('');
+          setRepeat('');
+        },
       },
     );
   }
@@ -119,6 +121,11 @@ function ChangePasswordForm() {
         />
         {change.isError && serverField !== 'currentPassword' && serverField !== 'newPassword' ? (
           <Notice tone="danger">{describeError(change.error)}</Notice>
+        ) : null}
+        {change.isSuccess ? (
+          <Notice tone="ok">
+            Password changed. Every other session of this account has ended.
+          </Notice>
         ) : null}
         <Button type="submit" variant="primary" busy={change.isPending}>
           Change password

@@ -25,9 +25,9 @@ import {
   describeError,
 } from '../../components/ui';
 import { useAppointLead } from '../../features/admin/api/appoint-lead';
-import { useCreateAccount } from '../../features/admin/api/create-account';
+import { useCreateUser } from '../../features/admin/api/create-user';
 import { useCreateMatter } from '../../features/admin/api/create-matter';
-import { accountsQueryOptions, useAccounts } from '../../features/admin/api/get-accounts';
+import { usersQueryOptions, useUsers } from '../../features/admin/api/get-users';
 import {
   type AdminMatter,
   adminMattersQueryOptions,
@@ -38,7 +38,7 @@ import { isApiError } from '../../lib/api-client';
 import { formatDate } from '../../lib/format';
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
-  void queryClient.prefetchQuery(accountsQueryOptions());
+  void queryClient.prefetchQuery(usersQueryOptions());
   void queryClient.prefetchQuery(adminMattersQueryOptions());
   return null;
 };
@@ -158,7 +158,7 @@ function CreateMatterDialog({ open, onClose }: { open: boolean; onClose: () => v
         name: name.trim(),
         description: description.trim(),
         controlPrefix,
-        leadEmail: leadEmail.trim() || undefined,
+        lead: leadEmail.trim(),
       },
       { onSuccess: close },
     );
@@ -199,12 +199,14 @@ function CreateMatterDialog({ open, onClose }: { open: boolean; onClose: () => v
           }
         />
         <TextField
-          label="Lead's e-mail (optional)"
+          label="Lead's e-mail"
+          hint="An existing account; it becomes the matter's first lead."
+          required
           type="email"
           maxLength={EMAIL_MAX_LENGTH}
           value={leadEmail}
           onChange={(e) => setLeadEmail(e.target.value)}
-          error={fieldError(error, 'leadEmail')}
+          error={fieldError(error, 'lead')}
         />
         {error && !(isApiError(error) && error.field) ? (
           <Notice tone="danger">{describeError(error)}</Notice>
@@ -215,7 +217,7 @@ function CreateMatterDialog({ open, onClose }: { open: boolean; onClose: () => v
             type="submit"
             variant="primary"
             busy={create.isPending}
-            disabled={!name.trim() || !prefixValid}
+            disabled={!name.trim() || !prefixValid || !leadEmail.trim()}
           >
             Create matter
           </Button>
@@ -242,7 +244,7 @@ function AppointLeadDialog({
   function submit(event: FormEvent) {
     event.preventDefault();
     if (!matter) return;
-    appoint.mutate({ matterId: matter.id, email: email.trim() }, { onSuccess: close });
+    appoint.mutate({ matterId: matter.id, lead: email.trim() }, { onSuccess: close });
   }
   return (
     <Dialog
@@ -258,7 +260,7 @@ function AppointLeadDialog({
           required
           value={email}
           onChange={(e) => setEmail(e.target.value)}
-          error={fieldError(appoint.error, 'email')}
+          error={fieldError(appoint.error, 'lead')}
         />
         {appoint.error && !(isApiError(appoint.error) && appoint.error.field) ? (
           <Notice tone="danger">{describeError(appoint.error)}</Notice>
@@ -275,7 +277,7 @@ function AppointLeadDialog({
 }
 
 function AccountsSection() {
-  const accounts = useAccounts();
+  const accounts = useUsers();
   const [creating, setCreating] = useState(false);
   return (
     <section aria-labelledby="admin-accounts-heading">
@@ -288,13 +290,14 @@ function AccountsSection() {
         </Button>
       </div>
       <QueryBoundary query={accounts} errorTitle="Accounts could not be loaded">
-        {({ accounts: list }) => (
+        {({ users: list }) => (
           <Table caption="All accounts of the firm" data-testid="admin-accounts-table">
             <THead>
               <tr>
                 <Th>Name</Th>
                 <Th>E-mail</Th>
                 <Th className="w-32">Kind</Th>
+                <Th className="w-24">Matters</Th>
                 <Th className="w-32">Created</Th>
               </tr>
             </THead>
@@ -305,11 +308,12 @@ function AccountsSection() {
                   <Td className="text-ink-muted">{account.email}</Td>
                   <Td>
                     {account.isAdmin ? <Badge tone="info">Firm admin</Badge> : null}
-                    {account.disabledAt ? <Badge tone="danger">Disabled</Badge> : null}
-                    {!account.isAdmin && !account.disabledAt ? (
+                    {account.disabled ? <Badge tone="danger">Disabled</Badge> : null}
+                    {!account.isAdmin && !account.disabled ? (
                       <span className="text-ink-muted">Member</span>
                     ) : null}
                   </Td>
+                  <Td className="tabular-nums">{account.matterCount}</Td>
                   <Td className="text-ink-muted">{formatDate(account.createdAt)}</Td>
                 </Tr>
               ))}
@@ -323,7 +327,7 @@ function AccountsSection() {
 }
 
 function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
-  const create = useCreateAccount();
+  const create = useCreateUser();
   const [email, setEmail] = useState('');
   const [name, setName] = useState('');
   const [password, setPassword] = useState('');
@@ -339,7 +343,7 @@ function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => 
   function submit(event: FormEvent) {
     event.preventDefault();
     create.mutate(
-      { email: email.trim(), name: name.trim(), password, isAdmin },
+      { email: email.trim(), name: name.trim(), temporaryPassword: password, isAdmin },
       { onSuccess: close },
     );
   }
@@ -376,7 +380,7 @@ function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => 
           hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
           value={password}
           onChange={(e) => setPassword(e.target.value)}
-          error={fieldError(error, 'password')}
+          error={fieldError(error, 'temporaryPassword')}
         />
         <label className="flex items-center gap-2 text-sm">
           <input

@@ -34,8 +34,12 @@ export function DevMailRoute() {
         }
       />
       <QueryBoundary query={mail} errorTitle="The mailbox could not be read">
-        {({ messages }) =>
-          messages.length === 0 ? (
+        {({ messages, fakeSmtp }) =>
+          !fakeSmtp ? (
+            <Notice tone="info" title="Real e-mail is on">
+              SMTP_URL is set, so messages go to the real mail server and none are kept here.
+            </Notice>
+          ) : messages.length === 0 ? (
             <EmptyState title="No messages yet">
               Invitations appear here as soon as a lead sends them.
             </EmptyState>
@@ -82,6 +86,24 @@ function MailItem({ message }: { message: DevMailMessage }) {
           <div className="font-document mt-3 text-[15px] leading-relaxed whitespace-pre-wrap">
             <LinkifiedText text={message.text} />
           </div>
+          {message.links.length > 0 ? (
+            <div className="mt-3 border-t border-line pt-2">
+              <p className="text-xs font-semibold text-ink-muted">Links in this message</p>
+              <ul className="mt-1 space-y-0.5 text-[13px]">
+                {message.links.map((link) => (
+                  <li key={link}>
+                    <a
+                      href={link}
+                      className="break-all text-accent-strong underline underline-offset-2"
+                      data-testid="dev-mail-link"
+                    >
+                      {link}
+                    </a>
+                  </li>
+                ))}
+              </ul>
+            </div>
+          ) : null}
         </div>
       ) : null}
     </li>

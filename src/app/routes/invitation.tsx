@@ -12,8 +12,9 @@ import {
   describeError,
 } from '../../components/ui';
 import { useAcceptInvitation } from '../../features/invitations/api/accept-invitation';
+import { useMe } from '../../features/auth/api/get-me';
 import {
-  type InvitationPreview,
+  type InvitationPreviewResponse,
   useInvitation,
 } from '../../features/invitations/api/get-invitation';
 import { isApiError } from '../../lib/api-client';
@@ -30,7 +31,7 @@ export function InvitationRoute() {
       ) : invitation.isError ? (
         <InvitationProblem error={invitation.error} onRetry={() => void invitation.refetch()} />
       ) : (
-        <AcceptForm token={token} invitation={invitation.data.invitation} />
+        <AcceptForm token={token} invitation={invitation.data} />
       )}
     </PublicLayout>
   );
@@ -58,9 +59,18 @@ function InvitationProblem({ error, onRetry }: { error: unknown; onRetry: () => 
   );
 }
 
-function AcceptForm({ token, invitation }: { token: string; invitation: InvitationPreview }) {
+function AcceptForm({
+  token,
+  invitation,
+}: {
+  token: string;
+  invitation: InvitationPreviewResponse;
+}) {
   const accept = useAcceptInvitation(token);
   const navigate = useNavigate();
+  // Already signed in as the invited account: accepting needs no password.
+  const me = useMe();
+  const signedInAsInvitee = me.data?.user.email.toLowerCase() === invitation.email.toLowerCase();
   const [mode, setMode] = useState<'create' | 'link'>(invitation.accountExists ? 'link' : 'create');
   const [name, setName] = useState('');
   const [password, setPassword] = useState('');
@@ -69,106 +79,128 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
 
   function submit(event: FormEvent) {
     event.preventDefault();
-    if (mode === 'create') {
+    if (!signedInAsInvitee && mode === 'create') {
       if (!name.trim()) return setLocalError('Enter your name.');
       if (password.length < PASSWORD_MIN_LENGTH)
-        return setLocalError(`Use at least ${PASSWORD_MIN_LENGTH} characters.`);
+        return setLocalError(`Use at least ${PASSWORD_MIN_LENGTH} characters for the password.`);
       if (password !== repeat) return setLocalError('The two passwords differ.');
     }
     setLocalError(null);
-    accept.mutate(mode === 'create' ? { mode, name: name.trim(), password } : { mode, password }, {
-      onSuccess: () =>
-        void navigate(`/sign-in?email=${encodeURIComponent(invitation.email)}&accepted=1`, {
-          replace: true,
-        }),
-    });
+    accept.mutate(
+      signedInAsInvitee ? {} : mode === 'create' ? { name: name.trim(), password } : { password },
+      // Accepting signs this browser in as the invited account.
+      { onSuccess: (result) => void navigate(`/matters/${result.matterId}`, { replace: true }) },
+    );
   }
+
+  const problems = (
+    <>
+      {localError ? <Notice tone="danger">{localError}</Notice> : null}
+      {accept.isError ? (
+        <Notice tone="danger" title="Not accepted">
+          {describeError(accept.error)}
+        </Notice>
+      ) : null}
+    </>
+  );
 
   return (
     <div data-testid="invitation-page">
       <h1 className="text-xl font-semibold tracking-tight">Join {invitation.matterName}</h1>
       <p className="mt-1 text-sm text-ink-muted">
-        {invitation.invitedByName} invited <strong className="text-ink">{invitation.email}</strong>{' '}
-        as <strong className="text-ink">{ROLE_LABELS[invitation.role]}</strong>. The link works once
+        {invitation.invitedBy ?? 'The matter lead'} invited{' '}
+        <strong className="text-ink">{invitation.email}</strong> as{' '}
+        <strong className="text-ink">{ROLE_LABELS[invitation.role]}</strong>. The link works once
         and expires {formatDateTime(invitation.expiresAt)}.
       </p>
-      <div
-        role="radiogroup"
-        aria-label="How to accept"
-        className="mt-5 grid grid-cols-2 gap-1 rounded-md border border-line bg-sunk p-1 text-sm"
-      >
-        {(['create', 'link'] as const).map((value) => (
-          <button
-            key={value}
-            type="button"
-            role="radio"
-            aria-checked={mode === value}
-            onClick={() => {
-              setMode(value);
-              accept.reset();
-              setLocalError(null);
-            }}
-            className={
-              mode === value
-                ? 'rounded bg-panel px-3 py-1.5 font-medium shadow-sm'
-                : 'rounded px-3 py-1.5 text-ink-muted hover:text-ink'
-            }
+      {signedInAsInvitee ? (
+        <form
+          onSubmit={submit}
+          className="mt-5 space-y-4 rounded-lg border border-line bg-panel p-5"
+          data-testid="accept-form"
+        >
+          <p className="text-sm">You are signed in as {invitation.email}.</p>
+          {problems}
+          <Button type="submit" variant="primary" className="w-full" busy={accept.isPending}>
+            Join the matter
+          </Button>
+        </form>
+      ) : (
+        <>
+          <div
+            role="radiogroup"
+            aria-label="How to accept"
+            className="mt-5 grid grid-cols-2 gap-1 rounded-md border border-line bg-sunk p-1 text-sm"
           >
-            {value === 'create' ? 'Create my account' : 'I already have an account'}
-          </button>
-        ))}
-      </div>
-      <form
-        onSubmit={submit}
-        className="mt-4 space-y-4 rounded-lg border border-line bg-panel p-5"
-        noValidate
-        data-testid="accept-form"
-      >
-        {mode === 'create' ? (
-          <>
-            <TextField
-              label="Your name"
-              autoComplete="name"
-              maxLength={NAME_MAX_LENGTH}
-              value={name}
-              onChange={(e) => setName(e.target.value)}
-            />
-            <TextField
-              label="Choose a password"
-              type="password"
-              autoComplete="new-password"
-              hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
-              maxLength={PASSWORD_MAX_LENGTH}
-              value={password}
-              onChange={(e) => setPassword(e.target.value)}
-            />
-            <TextField
-              label="Repeat the password"
-              type="password"
-              autoComplete="new-password"
-              value={repeat}
-              onChange={(e) => setRepeat(e.target.value)}
-            />
-          </>
-        ) : (
-          <TextField
-            label={`Password of ${invitation.email}`}
-            type="password"
-            autoComplete="current-password"
-            value={password}
-            onChange={(e) => setPassword(e.target.value)}
-          />
-        )}
-        {localError ? <Notice tone="danger">{localError}</Notice> : null}
-        {accept.isError ? (
-          <Notice tone="danger" title="Not accepted">
-            {describeError(accept.error)}
-          </Notice>
-        ) : null}
-        <Button type="submit" variant="primary" className="w-full" busy={accept.isPending}>
-          {mode === 'create' ? 'Create account and join' : 'Link my account and join'}
-        </Button>
-      </form>
+            {(['create', 'link'] as const).map((value) => (
+              <button
+                key={value}
+                type="button"
+                role="radio"
+                aria-checked={mode === value}
+                onClick={() => {
+                  setMode(value);
+                  accept.reset();
+                  setLocalError(null);
+                }}
+                className={
+                  mode === value
+                    ? 'rounded bg-panel px-3 py-1.5 font-medium shadow-sm'
+                    : 'rounded px-3 py-1.5 text-ink-muted hover:text-ink'
+                }
+              >
+                {value === 'create' ? 'Create my account' : 'I already have an account'}
+              </button>
+            ))}
+          </div>
+          <form
+            onSubmit={submit}
+            className="mt-4 space-y-4 rounded-lg border border-line bg-panel p-5"
+            noValidate
+            data-testid="accept-form"
+          >
+            {mode === 'create' ? (
+              <>
+                <TextField
+                  label="Your name"
+                  autoComplete="name"
+                  maxLength={NAME_MAX_LENGTH}
+                  value={name}
+                  onChange={(e) => setName(e.target.value)}
+                />
+                <TextField
+                  label="Choose a password"
+                  type="password"
+                  autoComplete="new-password"
+                  hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
+                  maxLength={PASSWORD_MAX_LENGTH}
+                  value={password}
+                  onChange={(e) => setPassword(e.target.value)}
+                />
+                <TextField
+                  label="Repeat the password"
+                  type="password"
+                  autoComplete="new-password"
+                  value={repeat}
+                  onChange={(e) => setRepeat(e.target.value)}
+                />
+              </>
+            ) : (
+              <TextField
+                label={`Password of ${invitation.email}`}
+                type="password"
+                autoComplete="current-password"
+                value={password}
+                onChange={(e) => setPassword(e.target.value)}
+              />
+            )}
+            {problems}
+            <Button type="submit" variant="primary" className="w-full" busy={accept.isPending}>
+              {mode === 'create' ? 'Create account and join' : 'Link my account and join'}
+            </Button>
+          </form>
+        </>
+      )}
     </div>
   );
 }

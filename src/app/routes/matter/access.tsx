@@ -24,10 +24,6 @@ import {
 import { useMe } from '../../../features/auth/api/get-me';
 import { useChangeMemberRole } from '../../../features/members/api/change-member-role';
 import {
-  invitationsQueryOptions,
-  useInvitations,
-} from '../../../features/members/api/get-invitations';
-import {
   type Member,
   membersQueryOptions,
   useMembers,
@@ -48,7 +44,6 @@ export const clientLoader =
     const matterId = parseMatterId(params.matterId);
     if (Number.isNaN(matterId)) return null;
     void queryClient.prefetchQuery(membersQueryOptions(matterId));
-    void queryClient.prefetchQuery(invitationsQueryOptions(matterId));
     return null;
   };
 
@@ -271,7 +266,7 @@ function RevokeMemberDialog({
         <Button
           variant="danger"
           busy={revoke.isPending}
-          onClick={() => member && revoke.mutate({ userId: member.userId }, { onSuccess: close })}
+          onClick={() => member && revoke.mutate(member.userId, { onSuccess: close })}
         >
           Revoke access
         </Button>
@@ -281,7 +276,7 @@ function RevokeMemberDialog({
 }
 
 function InvitationsSection({ matterId }: { matterId: number }) {
-  const invitations = useInvitations(matterId);
+  const invitations = useMembers(matterId);
   const canManage = useMatterPermission('members.manage');
   const revoke = useRevokeInvitation(matterId);
   return (

@@ -1,5 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
+import { AUDIT_ACTIONS, AUDIT_ACTION_LABELS } from '../../../../shared/audit';
 import { useSearchParams } from 'react-router';
 import {
   Button,
@@ -21,34 +23,23 @@ import {
   auditEventsQueryOptions,
   useAuditEvents,
 } from '../../../features/audit/api/get-audit-events';
-import { useMembers } from '../../../features/members/api/get-members';
 import { useMatterPermission } from '../../../lib/authorization';
 import { formatDateTime, humanizeAction } from '../../../lib/format';
 import { parseMatterId, useMatterId } from './layout';
 
 const PAGE_SIZE = 50;
 
-/** The log's actions this screen offers as a filter (the server may record more). */
-const KNOWN_ACTIONS = [
-  'auth.sign_in',
-  'auth.sign_in_failed',
-  'auth.sign_out',
-  'auth.password_changed',
-  'invitation.sent',
-  'invitation.accepted',
-  'invitation.revoked',
-  'member.granted',
-  'member.role_changed',
-  'member.revoked',
-];
+function actionLabel(action: string): string {
+  return (AUDIT_ACTION_LABELS as Record<string, string>)[action] ?? humanizeAction(action);
+}
 
 function filtersFrom(params: URLSearchParams): AuditFilters {
-  const page = Number(params.get('page') ?? '0');
+  const before = Number(params.get('before'));
   return {
-    actor: params.get('actor') ?? undefined,
-    action: params.get('action') ?? undefined,
-    page: Number.isInteger(page) && page >= 0 ? page : 0,
-    pageSize: PAGE_SIZE,
+    actor: params.get('actor') || undefined,
+    action: params.get('action') || undefined,
+    before: Number.isInteger(before) && before > 0 ? before : undefined,
+    limit: PAGE_SIZE,
   };
 }
 
@@ -80,28 +71,35 @@ function ActivityLog({ matterId }: { matterId: number }) {
   const [params, setParams] = useSearchParams();
   const filters = filtersFrom(params);
   const events = useAuditEvents(matterId, filters);
-  const members = useMembers(matterId);
+  // Cursors of the newer pages already seen, so "Newer" can step back.
+  const [newerCursors, setNewerCursors] = useState<(number | undefined)[]>([]);
 
-  function setFilter(key: 'actor' | 'action' | 'page', value: string | number | undefined) {
+  function update(changes: Record<string, string | number | undefined>) {
     const next = new URLSearchParams(params);
-    if (value === undefined || value === '' || value === 0) next.delete(key);
-    else next.set(key, String(value));
-    if (key !== 'page') next.delete('page');
+    for (const [key, value] of Object.entries(changes)) {
+      if (value === undefined || value === '') next.delete(key);
+      else next.set(key, String(value));
+    }
     setParams(next, { replace: true });
+  }
+
+  function setFilter(key: 'actor' | 'action', value: string) {
+    setNewerCursors([]);
+    update({ [key]: value, before: undefined });
   }
 
   const actorOptions = [
     { value: '', label: 'Everyone' },
-    ...(
-      events.data?.actors ??
-      members.data?.members.map((m) => ({ id: m.userId, name: m.name, email: m.email })) ??
-      []
-    ).map((actor) => ({ value: actor.id, label: `${actor.name} (${actor.email})` })),
+    ...(events.data?.actors ?? []).map((actor) => ({
+      value: actor.id,
+      label: actor.name
+        ? `${actor.name} (${actor.email ?? 'no e-mail'})`
+        : (actor.email ?? actor.id),
+    })),
   ];
-  const actions = events.data?.actions ?? KNOWN_ACTIONS;
   const actionOptions = [
     { value: '', label: 'All actions' },
-    ...actions.map((a) => ({ value: a, label: humanizeAction(a) })),
+    ...AUDIT_ACTIONS.map((action) => ({ value: action, label: actionLabel(action) })),
   ];
 
   return (
@@ -132,7 +130,7 @@ function ActivityLog({ matterId }: { matterId: number }) {
         ) : null}
       </div>
       <QueryBoundary query={events} errorTitle="The activity log could not be loaded">
-        {({ events: list, total }) =>
+        {({ events: list, nextCursor }) =>
           list.length === 0 ? (
             <EmptyState title="No activity matches these filters" />
           ) : (
@@ -148,22 +146,23 @@ function ActivityLog({ matterId }: { matterId: number }) {
                 </THead>
                 <TBody>
                   {list.map((event) => (
-                    <Tr key={event.id}>
+                    <Tr key={event.id} data-testid="audit-row">
                       <Td className="whitespace-nowrap text-ink-muted tabular-nums">
                         {formatDateTime(event.at)}
                       </Td>
                       <Td>
-                        {event.actorName ?? <span className="text-ink-muted">System</span>}
-                        {event.actorEmail ? (
-                          <span className="block text-xs text-ink-muted">{event.actorEmail}</span>
+                        {event.actor?.name ?? event.actor?.email ?? (
+                          <span className="text-ink-muted">System</span>
+                        )}
+                        {event.actor?.name && event.actor.email ? (
+                          <span className="block text-xs text-ink-muted">{event.actor.email}</span>
                         ) : null}
                       </Td>
                       <Td>
-                        <span className="font-mono text-[12.5px]">{event.action}</span>
+                        <span title={event.action}>{actionLabel(event.action)}</span>
                       </Td>
                       <Td className="text-[13px] text-ink-muted">
-                        {[event.target, describeDetail(event.detail)].filter(Boolean).join(' · ') ||
-                          '—'}
+                        {describeDetail(event.detail) || '—'}
                       </Td>
                     </Tr>
                   ))}
@@ -172,18 +171,26 @@ function ActivityLog({ matterId }: { matterId: number }) {
               <nav aria-label="Pages of the log" className="mt-3 flex items-center gap-3 text-sm">
                 <Button
                   size="sm"
-                  disabled={filters.page === 0}
-                  onClick={() => setFilter('page', filters.page - 1)}
+                  disabled={filters.before === undefined}
+                  onClick={() => {
+                    const previous = newerCursors[newerCursors.length - 1];
+                    setNewerCursors(newerCursors.slice(0, -1));
+                    update({ before: previous });
+                  }}
                 >
                   Newer
                 </Button>
                 <span className="text-ink-muted tabular-nums">
-                  {filters.page * PAGE_SIZE + 1}–{filters.page * PAGE_SIZE + list.length} of {total}
+                  {newerCursors.length * PAGE_SIZE + 1}–
+                  {newerCursors.length * PAGE_SIZE + list.length}
                 </span>
                 <Button
                   size="sm"
-                  disabled={(filters.page + 1) * PAGE_SIZE >= total}
-                  onClick={() => setFilter('page', filters.page + 1)}
+                  disabled={nextCursor === null}
+                  onClick={() => {
+                    setNewerCursors([...newerCursors, filters.before]);
+                    update({ before: nextCursor ?? undefined });
+                  }}
                 >
                   Older
                 </Button>

@@ -15,8 +15,9 @@ export function MatterHomeRoute() {
   const matterId = useMatterId();
   const role = useMatterRole();
   // The layout has loaded the matter before rendering this page.
-  const detail = useMatter(matterId).data?.matter;
-  if (!detail || !role) return null;
+  const home = useMatter(matterId).data;
+  if (!home || !role) return null;
+  const detail = home.matter;
 
   const sections = MATTER_SECTIONS.filter(
     (section) => section.path !== '' && roleCan(role, section.permission),
@@ -62,6 +63,16 @@ export function MatterHomeRoute() {
             <dd className="font-mono">{detail.controlPrefix}</dd>
             <dt className="text-ink-muted">Opened</dt>
             <dd>{formatDate(detail.createdAt)}</dd>
+            <dt className="text-ink-muted">{home.leads.length === 1 ? 'Lead' : 'Leads'}</dt>
+            <dd>{home.leads.map((lead) => lead.name).join(', ') || '—'}</dd>
+            <dt className="text-ink-muted">Team</dt>
+            <dd className="tabular-nums" data-testid="matter-member-count">
+              {home.memberCount} {home.memberCount === 1 ? 'member' : 'members'}
+            </dd>
+            <dt className="text-ink-muted">Documents</dt>
+            <dd className="tabular-nums" data-testid="matter-document-count">
+              {home.documentCount.toLocaleString()}
+            </dd>
           </dl>
         </section>
         <aside

@@ -54,11 +54,11 @@ export function MatterLayout() {
     );
   }
 
-  const { matter: detail } = matter.data;
-  const sections = MATTER_SECTIONS.filter((section) => roleCan(detail.role, section.permission));
+  const { matter: detail, role } = matter.data;
+  const sections = MATTER_SECTIONS.filter((section) => roleCan(role, section.permission));
 
   return (
-    <MatterRoleProvider role={detail.role}>
+    <MatterRoleProvider role={role}>
       <div className="mx-auto flex max-w-[88rem] gap-6 px-4 py-6">
         <aside className="w-52 shrink-0" aria-label="Matter">
           <div className="mb-3 border-b border-line pb-3">
@@ -69,8 +69,8 @@ export function MatterLayout() {
               {detail.name}
             </p>
             <div className="mt-1.5 flex items-center gap-2">
-              <Badge tone={detail.role === 'lead' ? 'accent' : 'neutral'} className="">
-                <span data-testid="matter-role">{ROLE_LABELS[detail.role]}</span>
+              <Badge tone={role === 'lead' ? 'accent' : 'neutral'} className="">
+                <span data-testid="matter-role">{ROLE_LABELS[role]}</span>
               </Badge>
               <span className="font-mono text-xs text-ink-muted">{detail.controlPrefix}</span>
             </div>

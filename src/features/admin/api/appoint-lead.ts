@@ -1,14 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { AppointLeadReq, AppointLeadResponse } from '../../../../shared/schemas/admin';
 import { api } from '../../../lib/api-client';
 import { adminMattersQueryOptions } from './get-admin-matters';
 
-export interface AppointLeadInput {
+export interface AppointLeadInput extends AppointLeadReq {
   matterId: number;
-  email: string;
 }
 
-export function appointLead({ matterId, email }: AppointLeadInput): Promise<unknown> {
-  return api.post(`/api/admin/matters/${matterId}/lead`, { email });
+export function appointLead({ matterId, lead }: AppointLeadInput): Promise<AppointLeadResponse> {
+  return api.put<AppointLeadResponse>(`/api/admin/matters/${matterId}/lead`, { lead });
 }
 
 export function useAppointLead() {

@@ -1,23 +1,24 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import type { CreateMatterResponse, createMatterSchema } from '../../../../shared/schemas/matters';
 import { api } from '../../../lib/api-client';
+import { usersQueryOptions } from './get-users';
 import { adminMattersQueryOptions } from './get-admin-matters';
 
-export interface CreateMatterInput {
-  name: string;
-  description: string;
-  controlPrefix: string;
-  leadEmail?: string;
-}
+export type CreateMatterInput = z.input<typeof createMatterSchema>;
 
-export function createMatter(input: CreateMatterInput): Promise<unknown> {
-  return api.post('/api/matters', input);
+/** A matter and its first lead (an account's e-mail or id). */
+export function createMatter(input: CreateMatterInput): Promise<CreateMatterResponse> {
+  return api.post<CreateMatterResponse>('/api/matters', input);
 }
 
 export function useCreateMatter() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createMatter,
-    onSuccess: () =>
-      queryClient.invalidateQueries({ queryKey: adminMattersQueryOptions().queryKey }),
+    onSuccess: async () => {
+      await queryClient.invalidateQueries({ queryKey: adminMattersQueryOptions().queryKey });
+      await queryClient.invalidateQueries({ queryKey: usersQueryOptions().queryKey });
+    },
   });
 }

@@ -1,19 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { AdminMattersResponse } from '../../../../shared/schemas/admin';
 import { api } from '../../../lib/api-client';
 
-export interface AdminMatter {
-  id: number;
-  name: string;
-  description: string;
-  controlPrefix: string;
-  createdAt: string;
-  leads: { userId: string; name: string; email: string }[];
-  memberCount: number;
-}
-
-export interface AdminMattersResponse {
-  matters: AdminMatter[];
-}
+export type { AdminMatter } from '../../../../shared/schemas/admin';
 
 export function getAdminMatters(signal?: AbortSignal): Promise<AdminMattersResponse> {
   return api.get<AdminMattersResponse>('/api/admin/matters', { signal });

@@ -1,44 +1,30 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { AuditPageResponse } from '../../../../shared/schemas/audit';
 import { api } from '../../../lib/api-client';
 
-export interface AuditEvent {
-  id: number;
-  at: string;
-  action: string;
-  actorId: string | null;
-  actorEmail: string | null;
-  actorName: string | null;
-  target: string | null;
-  detail: Record<string, unknown>;
-}
+export type { AuditEvent, AuditPageResponse } from '../../../../shared/schemas/audit';
 
 export interface AuditFilters {
+  /** User id. */
   actor?: string;
   action?: string;
-  page: number;
-  pageSize: number;
-}
-
-export interface AuditEventsResponse {
-  events: AuditEvent[];
-  total: number;
-  /** Distinct actions and people on this matter's log, for the filter menus. */
-  actions?: string[];
-  actors?: { id: string; name: string; email: string }[];
+  /** The previous page's nextCursor; absent for the newest page. */
+  before?: number;
+  limit: number;
 }
 
 export function getAuditEvents(
   matterId: number,
   filters: AuditFilters,
   signal?: AbortSignal,
-): Promise<AuditEventsResponse> {
-  return api.get<AuditEventsResponse>(`/api/matters/${matterId}/audit`, {
+): Promise<AuditPageResponse> {
+  return api.get<AuditPageResponse>(`/api/matters/${matterId}/audit`, {
     signal,
     query: {
       actor: filters.actor,
       action: filters.action,
-      limit: filters.pageSize,
-      offset: filters.page * filters.pageSize,
+      before: filters.before,
+      limit: filters.limit,
     },
   });
 }
@@ -48,6 +34,7 @@ export function auditEventsQueryOptions(matterId: number, filters: AuditFilters)
     queryKey: ['matters', 'detail', matterId, 'audit', filters],
     queryFn: ({ signal }) => getAuditEvents(matterId, filters, signal),
     placeholderData: keepPreviousData,
+    staleTime: 0,
   });
 }
 

@@ -1,15 +1,17 @@
-import { useMutation } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ChangePasswordReq, MeResponse } from '../../../../shared/schemas/auth';
 import { api } from '../../../lib/api-client';
+import { meQueryOptions } from './get-me';
 
-export interface ChangePasswordInput {
-  currentPassword: string;
-  newPassword: string;
-}
-
-export function changePassword(input: ChangePasswordInput): Promise<void> {
-  return api.post<void>('/api/auth/password', input);
+/** Ends every session of the account; the server starts a fresh one for this browser. */
+export function changePassword(input: ChangePasswordReq): Promise<MeResponse> {
+  return api.post<MeResponse>('/api/auth/password', input);
 }
 
 export function useChangePassword() {
-  return useMutation({ mutationFn: changePassword });
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: changePassword,
+    onSuccess: (data) => queryClient.setQueryData(meQueryOptions().queryKey, data),
+  });
 }

@@ -1,16 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { MeResponse } from '../../../../shared/schemas/auth';
 import { api } from '../../../lib/api-client';
 
-export interface CurrentUser {
-  id: string;
-  email: string;
-  name: string;
-  isAdmin: boolean;
-}
-
-export interface MeResponse {
-  user: CurrentUser;
-}
+export type { ApiUser, MeResponse } from '../../../../shared/schemas/auth';
 
 export function getMe(signal?: AbortSignal): Promise<MeResponse> {
   return api.get<MeResponse>('/api/auth/me', { signal, allowUnauthenticated: true });

@@ -1,13 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { MeResponse } from '../../../../shared/schemas/auth';
+import type { SignInReq } from '../../../../shared/schemas/auth';
 import { api } from '../../../lib/api-client';
-import { type MeResponse, meQueryOptions } from './get-me';
+import { meQueryOptions } from './get-me';
 
-export interface SignInInput {
-  email: string;
-  password: string;
-}
-
-export function signIn(input: SignInInput): Promise<MeResponse> {
+export function signIn(input: SignInReq): Promise<MeResponse> {
   return api.post<MeResponse>('/api/auth/sign-in', input, { allowUnauthenticated: true });
 }
 
@@ -15,8 +12,8 @@ export function useSignIn() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signIn,
-    onSuccess: async (data) => {
-      // A new person may now be signed in: forget everything cached for the last one.
+    onSuccess: (data) => {
+      // Another person may now be signed in: forget everything cached for the last one.
       queryClient.clear();
       queryClient.setQueryData(meQueryOptions().queryKey, data);
     },

@@ -1,21 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { DevMailResponse } from '../../../../shared/schemas/dev';
 import { api } from '../../../lib/api-client';
 
-export interface DevMailMessage {
-  id: string;
-  from: string;
-  to: string[];
-  subject: string;
-  receivedAt: string;
-  text: string;
-  html?: string | null;
-}
+export type { DevMailMessage, DevMailResponse } from '../../../../shared/schemas/dev';
 
-export interface DevMailResponse {
-  messages: DevMailMessage[];
-}
-
-/** The fake SMTP server's mailbox; the endpoint answers 404 outside demo/dev mode. */
+/** The fake SMTP server's mailbox, newest first; the endpoint is a 404 outside demo/dev mode. */
 export function getDevMail(signal?: AbortSignal): Promise<DevMailResponse> {
   return api.get<DevMailResponse>('/api/dev/mail', { signal, allowUnauthenticated: true });
 }

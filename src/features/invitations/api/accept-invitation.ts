@@ -1,17 +1,17 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type {
+  AcceptInvitationReq,
+  AcceptInvitationResponse,
+} from '../../../../shared/schemas/invitations';
 import { api } from '../../../lib/api-client';
 
-/** A new account (name + password) or the password of the existing account to link. */
-export type AcceptInvitationInput =
-  { mode: 'create'; name: string; password: string } | { mode: 'link'; password: string };
-
-export interface AcceptInvitationResponse {
-  matterId: number;
-}
-
+/**
+ * Accepts with a new account (name + password) or an existing one (its password, or
+ * nothing when already signed in as it). Success signs the browser in as that account.
+ */
 export function acceptInvitation(
   token: string,
-  input: AcceptInvitationInput,
+  input: AcceptInvitationReq,
 ): Promise<AcceptInvitationResponse> {
   return api.post<AcceptInvitationResponse>(
     `/api/invitations/${encodeURIComponent(token)}/accept`,
@@ -25,7 +25,8 @@ export function acceptInvitation(
 export function useAcceptInvitation(token: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: AcceptInvitationInput) => acceptInvitation(token, input),
+    mutationFn: (input: AcceptInvitationReq) => acceptInvitation(token, input),
+    // The session changed hands: nothing cached for a previous person may show.
     onSuccess: () => queryClient.clear(),
   });
 }

@@ -1,22 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type { InvitationPreviewResponse } from '../../../../shared/schemas/invitations';
 import { api } from '../../../lib/api-client';
 
-/** What the invitation link may show before it is accepted. */
-export interface InvitationPreview {
-  email: string;
-  role: MatterRole;
-  matterName: string;
-  invitedByName: string;
-  expiresAt: string;
-  /** Whether an account with this e-mail already exists (then: sign in to link it). */
-  accountExists: boolean;
-}
+export type { InvitationPreviewResponse } from '../../../../shared/schemas/invitations';
 
-export interface InvitationPreviewResponse {
-  invitation: InvitationPreview;
-}
-
+/** What the link may show before it is accepted (public: the token is the credential). */
 export function getInvitation(
   token: string,
   signal?: AbortSignal,
@@ -31,6 +19,7 @@ export function invitationQueryOptions(token: string) {
   return queryOptions({
     queryKey: ['invitations', token],
     queryFn: ({ signal }) => getInvitation(token, signal),
+    staleTime: 0,
   });
 }
 

@@ -1,22 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type { MatterHomeResponse } from '../../../../shared/schemas/matters';
 import { api } from '../../../lib/api-client';
 
-export interface MatterDetail {
-  id: number;
-  name: string;
-  description: string;
-  controlPrefix: string;
-  role: MatterRole;
-  createdAt: string;
-}
+export type { MatterHomeResponse } from '../../../../shared/schemas/matters';
 
-export interface MatterResponse {
-  matter: MatterDetail;
-}
-
-export function getMatter(matterId: number, signal?: AbortSignal): Promise<MatterResponse> {
-  return api.get<MatterResponse>(`/api/matters/${matterId}`, { signal });
+/** The matter, the caller's role and permissions on it, its leads and counts. */
+export function getMatter(matterId: number, signal?: AbortSignal): Promise<MatterHomeResponse> {
+  return api.get<MatterHomeResponse>(`/api/matters/${matterId}`, { signal });
 }
 
 export function matterQueryOptions(matterId: number) {

@@ -1,22 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type { MattersResponse } from '../../../../shared/schemas/matters';
 import { api } from '../../../lib/api-client';
 
-export interface MatterSummary {
-  id: number;
-  name: string;
-  description: string;
-  controlPrefix: string;
-  role: MatterRole;
-  createdAt: string;
-}
+export type { MatterSummary, MattersResponse } from '../../../../shared/schemas/matters';
 
-export interface MyMattersResponse {
-  matters: MatterSummary[];
-}
-
-export function getMyMatters(signal?: AbortSignal): Promise<MyMattersResponse> {
-  return api.get<MyMattersResponse>('/api/matters', { signal });
+export function getMyMatters(signal?: AbortSignal): Promise<MattersResponse> {
+  return api.get<MattersResponse>('/api/matters', { signal });
 }
 
 export function myMattersQueryOptions() {

@@ -1,15 +1,20 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type { ChangeRoleReq, MemberResponse } from '../../../../shared/schemas/members';
 import { api } from '../../../lib/api-client';
 import { membersQueryOptions } from './get-members';
 
-export interface ChangeMemberRoleInput {
+export interface ChangeMemberRoleInput extends ChangeRoleReq {
   userId: string;
-  role: MatterRole;
 }
 
-export function changeMemberRole(matterId: number, input: ChangeMemberRoleInput): Promise<unknown> {
-  return api.patch(`/api/matters/${matterId}/members`, input);
+export function changeMemberRole(
+  matterId: number,
+  { userId, role }: ChangeMemberRoleInput,
+): Promise<MemberResponse> {
+  return api.patch<MemberResponse>(
+    `/api/matters/${matterId}/members/${encodeURIComponent(userId)}`,
+    { role },
+  );
 }
 
 export function useChangeMemberRole(matterId: number) {

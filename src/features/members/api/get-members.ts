@@ -1,20 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type { MembersResponse } from '../../../../shared/schemas/members';
 import { api } from '../../../lib/api-client';
 
-export interface Member {
-  userId: string;
-  email: string;
-  name: string;
-  role: MatterRole;
-  grantedAt: string;
-  grantedBy: string | null;
-}
+export type {
+  Member,
+  MembersResponse,
+  PendingInvitation,
+} from '../../../../shared/schemas/members';
 
-export interface MembersResponse {
-  members: Member[];
-}
-
+/** Members and pending invitations of a matter (lead only). */
 export function getMembers(matterId: number, signal?: AbortSignal): Promise<MembersResponse> {
   return api.get<MembersResponse>(`/api/matters/${matterId}/members`, { signal });
 }

@@ -1,23 +1,24 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type { GrantMemberReq, MemberResponse } from '../../../../shared/schemas/members';
 import { api } from '../../../lib/api-client';
+import { matterQueryOptions } from '../../matters/api/get-matter';
 import { membersQueryOptions } from './get-members';
 
-export interface GrantMemberInput {
-  email: string;
-  role: MatterRole;
-}
-
-/** Gives an existing account a role on the matter. */
-export function grantMember(matterId: number, input: GrantMemberInput): Promise<unknown> {
-  return api.post(`/api/matters/${matterId}/members`, input);
+/** Gives an existing account a role on the matter at once (no e-mail round trip). */
+export function grantMember(matterId: number, input: GrantMemberReq): Promise<MemberResponse> {
+  return api.post<MemberResponse>(`/api/matters/${matterId}/members`, input);
 }
 
 export function useGrantMember(matterId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: GrantMemberInput) => grantMember(matterId, input),
-    onSuccess: () =>
-      queryClient.invalidateQueries({ queryKey: membersQueryOptions(matterId).queryKey }),
+    mutationFn: (input: GrantMemberReq) => grantMember(matterId, input),
+    onSuccess: async () => {
+      await queryClient.invalidateQueries({ queryKey: membersQueryOptions(matterId).queryKey });
+      await queryClient.invalidateQueries({
+        queryKey: matterQueryOptions(matterId).queryKey,
+        exact: true,
+      });
+    },
   });
 }

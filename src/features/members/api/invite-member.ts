@@ -1,23 +1,24 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MatterRole } from '../../../../shared/roles';
+import type {
+  CreateInvitationReq,
+  CreateInvitationResponse,
+} from '../../../../shared/schemas/invitations';
 import { api } from '../../../lib/api-client';
-import { invitationsQueryOptions } from './get-invitations';
+import { membersQueryOptions } from './get-members';
 
-export interface InviteMemberInput {
-  email: string;
-  role: MatterRole;
-}
-
-/** Sends an invitation e-mail with a single-use link. */
-export function inviteMember(matterId: number, input: InviteMemberInput): Promise<unknown> {
-  return api.post(`/api/matters/${matterId}/invitations`, input);
+/** E-mails a single-use link; the invitation then shows as pending. */
+export function inviteMember(
+  matterId: number,
+  input: CreateInvitationReq,
+): Promise<CreateInvitationResponse> {
+  return api.post<CreateInvitationResponse>(`/api/matters/${matterId}/invitations`, input);
 }
 
 export function useInviteMember(matterId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: InviteMemberInput) => inviteMember(matterId, input),
+    mutationFn: (input: CreateInvitationReq) => inviteMember(matterId, input),
     onSuccess: () =>
-      queryClient.invalidateQueries({ queryKey: invitationsQueryOptions(matterId).queryKey }),
+      queryClient.invalidateQueries({ queryKey: membersQueryOptions(matterId).queryKey }),
   });
 }

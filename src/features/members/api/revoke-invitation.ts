@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { invitationsQueryOptions } from './get-invitations';
+import { membersQueryOptions } from './get-members';
 
-export function revokeInvitation(matterId: number, invitationId: number): Promise<unknown> {
-  return api.delete(`/api/matters/${matterId}/invitations/${invitationId}`);
+export function revokeInvitation(matterId: number, invitationId: number): Promise<void> {
+  return api.delete<void>(`/api/matters/${matterId}/invitations/${invitationId}`);
 }
 
 export function useRevokeInvitation(matterId: number) {
@@ -11,6 +11,6 @@ export function useRevokeInvitation(matterId: number) {
   return useMutation({
     mutationFn: (invitationId: number) => revokeInvitation(matterId, invitationId),
     onSuccess: () =>
-      queryClient.invalidateQueries({ queryKey: invitationsQueryOptions(matterId).queryKey }),
+      queryClient.invalidateQueries({ queryKey: membersQueryOptions(matterId).queryKey }),
   });
 }

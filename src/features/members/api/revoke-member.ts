@@ -1,20 +1,22 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { matterQueryOptions } from '../../matters/api/get-matter';
 import { membersQueryOptions } from './get-members';
 
-export interface RevokeMemberInput {
-  userId: string;
-}
-
-export function revokeMember(matterId: number, input: RevokeMemberInput): Promise<unknown> {
-  return api.delete(`/api/matters/${matterId}/members`, input);
+export function revokeMember(matterId: number, userId: string): Promise<void> {
+  return api.delete<void>(`/api/matters/${matterId}/members/${encodeURIComponent(userId)}`);
 }
 
 export function useRevokeMember(matterId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: RevokeMemberInput) => revokeMember(matterId, input),
-    onSuccess: () =>
-      queryClient.invalidateQueries({ queryKey: membersQueryOptions(matterId).queryKey }),
+    mutationFn: (userId: string) => revokeMember(matterId, userId),
+    onSuccess: async () => {
+      await queryClient.invalidateQueries({ queryKey: membersQueryOptions(matterId).queryKey });
+      await queryClient.invalidateQueries({
+        queryKey: matterQueryOptions(matterId).queryKey,
+        exact: true,
+      });
+    },
   });
 }

@@ -1,0 +1,375 @@
+import {
+  type SortingState,
+  type PaginationState,
+  type Updater,
+  createColumnHelper,
+  createSortedRowModel,
+  rowPaginationFeature,
+  rowSortingFeature,
+  sortFn_alphanumeric,
+  sortFn_basic,
+  sortFn_datetime,
+  sortFn_text,
+  tableFeatures,
+  useTable,
+} from '@tanstack/react-table';
+import { useState } from 'react';
+import { Link, useNavigate } from 'react-router';
+import type { DocumentListItem } from '../../../../shared/schemas/documents';
+import { Button, Dialog, Notice, describeError } from '../../../components/ui';
+import { useMatterPermission } from '../../../lib/authorization';
+import { cn } from '../../../lib/cn';
+import { formatDate } from '../../../lib/format';
+import { useDeleteDocument } from '../api/delete-document';
+import { useRetryDocument } from '../api/retry-document';
+import { docTypeLabel, formatBytes } from '../format';
+import { DocumentStatusCell, IndexStateBadge } from './document-status';
+
+// TanStack Table v9: features are registered explicitly. The server pages the list
+// (manualPagination); sorting orders the rows of the page on the client.
+const features = tableFeatures({
+  rowSortingFeature,
+  rowPaginationFeature,
+  sortedRowModel: createSortedRowModel(),
+  sortFns: {
+    alphanumeric: sortFn_alphanumeric,
+    text: sortFn_text,
+    datetime: sortFn_datetime,
+    basic: sortFn_basic,
+  },
+});
+
+const helper = createColumnHelper<typeof features, DocumentListItem>();
+
+const columns = helper.columns([
+  helper.accessor('controlNumber', {
+    header: 'Control no.',
+    sortFn: 'alphanumeric',
+  }),
+  helper.accessor('title', { header: 'Title', sortFn: 'text' }),
+  helper.accessor((row) => row.custodian?.name ?? '', {
+    id: 'custodian',
+    header: 'Custodian',
+    sortFn: 'text',
+  }),
+  helper.accessor('docType', { header: 'Type', sortFn: 'text' }),
+  helper.accessor((row) => (row.sentAt ? new Date(row.sentAt) : undefined), {
+    id: 'date',
+    header: 'Date',
+    sortFn: 'datetime',
+    sortUndefined: 'last',
+  }),
+  helper.accessor('size', { header: 'Size', sortFn: 'basic' }),
+  helper.accessor('status', { header: 'Status', sortFn: 'text' }),
+  helper.accessor('indexState', { header: 'Index', sortFn: 'text' }),
+  helper.display({ id: 'actions', header: 'Actions', enableSorting: false }),
+]);
+
+const headerClass: Record<string, string> = {
+  controlNumber: 'w-32',
+  custodian: 'w-40',
+  docType: 'w-24',
+  date: 'w-28',
+  size: 'w-20 text-right',
+  status: 'w-64',
+  indexState: 'w-36',
+  actions: 'w-36 text-right',
+};
+
+export function DocumentTable({
+  matterId,
+  rows,
+  total,
+  pagination,
+  onPaginationChange,
+  caption,
+}: {
+  matterId: number;
+  rows: DocumentListItem[];
+  total: number;
+  pagination: PaginationState;
+  onPaginationChange: (next: PaginationState) => void;
+  caption: string;
+}) {
+  const navigate = useNavigate();
+  const canOrganise = useMatterPermission('documents.organise');
+  const [sorting, setSorting] = useState<SortingState>([]);
+  const [removing, setRemoving] = useState<DocumentListItem | null>(null);
+  const retry = useRetryDocument(matterId);
+  const remove = useDeleteDocument(matterId);
+
+  const table = useTable({
+    features,
+    columns,
+    data: rows,
+    rowCount: total,
+    manualPagination: true,
+    getRowId: (row) => String(row.id),
+    state: { sorting, pagination },
+    onSortingChange: setSorting,
+    onPaginationChange: (updater: Updater<PaginationState>) =>
+      onPaginationChange(typeof updater === 'function' ? updater(pagination) : updater),
+  });
+
+  const controlNumbers = new Map(rows.map((row) => [row.id, row.controlNumber]));
+  const open = (row: DocumentListItem) => navigate(`/matters/${matterId}/documents/${row.id}`);
+
+  return (
+    <div>
+      {retry.isError ? (
+        <Notice tone="danger" className="mb-2" title="The document was not queued again">
+          {describeError(retry.error)}
+        </Notice>
+      ) : null}
+      <div className="overflow-x-auto rounded-md border border-line bg-panel">
+        <table className="w-full border-collapse text-[13px]" data-testid="document-table">
+          <caption className="sr-only">{caption}</caption>
+          <thead className="bg-sunk/70 text-left">
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => {
+                  const sorted = header.column.getIsSorted();
+                  const canSort = header.column.getCanSort();
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      aria-sort={
+                        sorted === 'asc'
+                          ? 'ascending'
+                          : sorted === 'desc'
+                            ? 'descending'
+                            : undefined
+                      }
+                      className={cn(
+                        'border-b border-line px-2.5 py-1.5 text-[11px] font-semibold tracking-wide text-ink-muted uppercase',
+                        headerClass[header.column.id],
+                      )}
+                    >
+                      {canSort ? (
+                        <button
+                          type="button"
+                          onClick={header.column.getToggleSortingHandler()}
+                          className="inline-flex items-center gap-1 uppercase hover:text-ink"
+                          data-testid={`sort-${header.column.id}`}
+                        >
+                          <table.FlexRender header={header} />
+                          <span aria-hidden="true" className="w-2 text-accent-strong">
+                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : ''}
+                          </span>
+                        </button>
+                      ) : (
+                        <table.FlexRender header={header} />
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody className="divide-y divide-line">
+            {table.getRowModel().rows.map((row) => {
+              const doc = row.original;
+              return (
+                <tr
+                  key={row.id}
+                  className="cursor-pointer hover:bg-paper"
+                  onClick={() => open(doc)}
+                  data-testid="document-row"
+                  data-control-number={doc.controlNumber}
+                  data-status={doc.status}
+                >
+                  <td className="px-2.5 py-1 font-mono whitespace-nowrap">
+                    <Link
+                      to={`/matters/${matterId}/documents/${doc.id}`}
+                      className="text-accent-strong underline-offset-2 hover:underline"
+                      onClick={(event) => event.stopPropagation()}
+                    >
+                      {doc.controlNumber}
+                    </Link>
+                  </td>
+                  <td className="max-w-0 px-2.5 py-1">
+                    <span className="block truncate" title={doc.path}>
+                      {doc.parentId ? (
+                        <span className="mr-1 text-ink-faint" aria-label="Attachment:">
+                          ↳
+                        </span>
+                      ) : null}
+                      {doc.title}
+                    </span>
+                  </td>
+                  <td className="truncate px-2.5 py-1 text-ink-muted">
+                    {doc.custodian?.name ?? '—'}
+                  </td>
+                  <td className="px-2.5 py-1 whitespace-nowrap">{docTypeLabel(doc.docType)}</td>
+                  <td className="px-2.5 py-1 whitespace-nowrap tabular-nums">
+                    {formatDate(doc.sentAt)}
+                  </td>
+                  <td className="px-2.5 py-1 text-right whitespace-nowrap tabular-nums">
+                    {formatBytes(doc.size)}
+                  </td>
+                  <td className="px-2.5 py-1">
+                    <DocumentStatusCell
+                      matterId={matterId}
+                      status={doc.status}
+                      error={doc.error}
+                      duplicateOf={doc.duplicateOf}
+                      duplicateOfControlNumber={
+                        doc.duplicateOf ? controlNumbers.get(doc.duplicateOf) : undefined
+                      }
+                    />
+                  </td>
+                  <td className="px-2.5 py-1">
+                    <IndexStateBadge state={doc.indexState} />
+                  </td>
+                  <td className="px-2.5 py-1 text-right whitespace-nowrap">
+                    {canOrganise && doc.status === 'failed' ? (
+                      <span
+                        className="inline-flex gap-1"
+                        onClick={(event) => event.stopPropagation()}
+                      >
+                        <Button
+                          size="sm"
+                          variant="quiet"
+                          busy={retry.isPending && retry.variables === doc.id}
+                          onClick={() => retry.mutate(doc.id)}
+                          aria-label={`Retry ${doc.controlNumber}`}
+                          data-testid="retry-document"
+                        >
+                          Retry
+                        </Button>
+                        <Button
+                          size="sm"
+                          variant="quiet"
+                          className="text-danger hover:bg-danger-soft"
+                          onClick={() => setRemoving(doc)}
+                          aria-label={`Remove ${doc.controlNumber}`}
+                          data-testid="remove-document"
+                        >
+                          Remove
+                        </Button>
+                      </span>
+                    ) : null}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+      <Pager
+        pageIndex={pagination.pageIndex}
+        pageCount={table.getPageCount()}
+        pageSize={pagination.pageSize}
+        total={total}
+        canPrevious={table.getCanPreviousPage()}
+        canNext={table.getCanNextPage()}
+        onPrevious={() => table.previousPage()}
+        onNext={() => table.nextPage()}
+        onPageSize={(size) => onPaginationChange({ pageIndex: 0, pageSize: size })}
+        sorted={sorting.length > 0}
+      />
+      <Dialog
+        open={removing != null}
+        onClose={() => {
+          setRemoving(null);
+          remove.reset();
+        }}
+        title={removing ? `Remove ${removing.controlNumber}?` : 'Remove document'}
+        description="The file leaves this matter's document list and index. The activity log keeps a record of the removal."
+      >
+        {removing ? (
+          <div className="space-y-3">
+            <p className="text-sm">
+              <span className="font-medium">{removing.name}</span>
+              {removing.error ? (
+                <span className="text-ink-muted"> — failed: {removing.error}</span>
+              ) : null}
+            </p>
+            {remove.isError ? (
+              <Notice tone="danger" title="The document was not removed">
+                {describeError(remove.error)}
+              </Notice>
+            ) : null}
+            <div className="flex justify-end gap-2">
+              <Button onClick={() => setRemoving(null)}>Keep it</Button>
+              <Button
+                variant="danger"
+                busy={remove.isPending}
+                data-testid="confirm-remove"
+                onClick={() => remove.mutate(removing.id, { onSuccess: () => setRemoving(null) })}
+              >
+                Remove document
+              </Button>
+            </div>
+          </div>
+        ) : null}
+      </Dialog>
+    </div>
+  );
+}
+
+const PAGE_SIZES = [50, 100, 250, 500];
+
+function Pager({
+  pageIndex,
+  pageCount,
+  pageSize,
+  total,
+  canPrevious,
+  canNext,
+  onPrevious,
+  onNext,
+  onPageSize,
+  sorted,
+}: {
+  pageIndex: number;
+  pageCount: number;
+  pageSize: number;
+  total: number;
+  canPrevious: boolean;
+  canNext: boolean;
+  onPrevious: () => void;
+  onNext: () => void;
+  onPageSize: (size: number) => void;
+  sorted: boolean;
+}) {
+  const first = total === 0 ? 0 : pageIndex * pageSize + 1;
+  const last = Math.min(total, (pageIndex + 1) * pageSize);
+  return (
+    <nav
+      aria-label="Pages of documents"
+      className="mt-2 flex flex-wrap items-center justify-between gap-3 text-[13px] text-ink-muted"
+    >
+      <span aria-live="polite" data-testid="document-range">
+        {first}–{last} of {total}
+        {sorted ? ' · sorting orders the rows of this page' : ''}
+      </span>
+      <span className="flex items-center gap-2">
+        <label className="flex items-center gap-1.5">
+          Rows per page
+          <select
+            className="h-7 rounded-md border border-line-strong bg-panel px-1.5 text-[13px] text-ink"
+            value={pageSize}
+            onChange={(event) => onPageSize(Number(event.target.value))}
+          >
+            {PAGE_SIZES.map((size) => (
+              <option key={size} value={size}>
+                {size}
+              </option>
+            ))}
+          </select>
+        </label>
+        <Button size="sm" onClick={onPrevious} disabled={!canPrevious}>
+          Previous
+        </Button>
+        <span className="tabular-nums">
+          Page {pageCount === 0 ? 0 : pageIndex + 1} of {pageCount}
+        </span>
+        <Button size="sm" onClick={onNext} disabled={!canNext}>
+          Next
+        </Button>
+      </span>
+    </nav>
+  );
+}
