@@ -65,7 +65,9 @@ const envSchema = z.object({
   QUARRY_TRUST_PROXY: z
     .string()
     .transform((value): boolean | number | string => {
-      if (value === 'true' || value === '1') return true;
+      // "true" trusts every hop (only behind a proxy that overwrites X-Forwarded-*);
+      // a number is the count of proxies in front of Quarry; anything else a subnet list.
+      if (value === 'true') return true;
       if (value === 'false' || value === '0' || value === '') return false;
       return /^\d+$/.test(value) ? Number(value) : value;
     })

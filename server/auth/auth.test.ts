@@ -1,0 +1,313 @@
+// Sign-in, sessions and CSRF over HTTP against a real database.
+// Sources: RFC 6265 (HTTP State Management: HttpOnly, Secure, Max-Age), RFC 6265bis
+// (SameSite), OWASP Authentication Cheat Sheet (generic failure message, throttling),
+// OWASP Session Management Cheat Sheet (renew/invalidate sessions on password change),
+// OWASP CSRF Prevention Cheat Sheet (Origin verification), RFC 9110 section 10.2.3
+// (Retry-After) and RFC 6585 section 4 (429 Too Many Requests).
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, test } from 'vitest';
+import { createTestApp, type TestApp, type TestUser } from '../../tests/helpers';
+import { SIGN_IN_MAX_FAILURES_PER_ACCOUNT, SIGN_IN_MAX_FAILURES_PER_IP } from './rate-limit';
+import { SESSION_COOKIE } from './session';
+
+function sessionCookie(setCookie: string[] | string | undefined): string | undefined {
+  const list = Array.isArray(setCookie) ? setCookie : setCookie ? [setCookie] : [];
+  return list.find((cookie) => cookie.startsWith(`${SESSION_COOKIE}=`));
+}
+
+function attributes(cookie: string): Map<string, string> {
+  const parts = cookie.split(';').map((part) => part.trim());
+  return new Map(
+    parts.slice(1).map((part) => {
+      const [name, ...value] = part.split('=');
+      return [name.toLowerCase(), value.join('=')] as const;
+    }),
+  );
+}
+
+describe('sign-in and session cookie', () => {
+  let t: TestApp;
+  let user: TestUser;
+  beforeAll(async () => {
+    t = await createTestApp();
+    user = await t.buildUser({ email: 'Jo.Bloggs@Example.com' });
+  });
+  afterAll(() => t.close());
+
+  test('a correct e-mail (any case) and password start a session with HttpOnly, SameSite=Lax, no Secure over http', async () => {
+    const agent = t.agent();
+    const response = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: ' JO.BLOGGS@example.com ', password: user.password });
+    expect(response.status).toBe(200);
+    expect(response.body.user).toEqual({
+      id: user.id,
+      email: user.email,
+      name: user.name,
+      isAdmin: false,
+    });
+    const cookie = sessionCookie(response.headers['set-cookie']);
+    expect(cookie).toBeDefined();
+    const attrs = attributes(cookie as string);
+    // RFC 6265 section 4.1.2.6 (HttpOnly), 4.1.2.5 (Secure), RFC 6265bis SameSite.
+    expect(attrs.has('httponly')).toBe(true);
+    expect(attrs.get('samesite')?.toLowerCase()).toBe('lax');
+    expect(attrs.get('path')).toBe('/');
+    expect(attrs.has('secure')).toBe(false);
+    // The session has a bounded lifetime (12 h idle by default).
+    expect(Number(attrs.get('max-age'))).toBe(12 * 60 * 60);
+    const me = await agent.get('/api/auth/me');
+    expect(me.status).toBe(200);
+    expect(me.body.user.id).toBe(user.id);
+  });
+
+  test('GET /api/auth/me without a session is 401 unauthenticated', async () => {
+    const response = await t.agent().get('/api/auth/me');
+    expect(response.status).toBe(401);
+    expect(response.body).toEqual({
+      error: { code: 'unauthenticated', message: 'Sign in to continue.' },
+    });
+  });
+
+  test('an invalid session cookie is ignored and cleared', async () => {
+    const response = await t
+      .agent()
+      .get('/api/auth/me')
+      .set('Cookie', `${SESSION_COOKIE}=forged-session-id`);
+    expect(response.status).toBe(401);
+    const cleared = sessionCookie(response.headers['set-cookie']);
+    expect(attributes(cleared as string).get('max-age')).toBe('0');
+  });
+
+  test('unknown e-mail and wrong password get the same 401 body, and similar timing', async () => {
+    const time = async (email: string) => {
+      const started = performance.now();
+      const response = await t
+        .agent()
+        .post('/api/auth/sign-in')
+        .send({ email, password: 'not the password' });
+      return { response, ms: performance.now() - started };
+    };
+    const wrong = [await time(user.email), await time(user.email)];
+    const unknown = [await time('nobody@example.com'), await time('nobody-else@example.com')];
+    for (const { response } of [...wrong, ...unknown]) {
+      expect(response.status).toBe(401);
+      expect(response.body).toEqual({
+        error: {
+          code: 'invalid_credentials',
+          message: 'The e-mail address or password is incorrect.',
+        },
+      });
+    }
+    // Both paths run one Argon2id verification (a dummy hash for unknown accounts), so
+    // an unknown e-mail is not answered markedly faster (loose bound against CI noise).
+    const fastestWrong = Math.min(...wrong.map((r) => r.ms));
+    const slowestUnknown = Math.max(...unknown.map((r) => r.ms));
+    expect(slowestUnknown).toBeGreaterThan(fastestWrong * 0.3);
+  });
+
+  test('failed and successful sign-ins are in the audit log', async () => {
+    const events = await t.ctx.db
+      .selectFrom('audit_events')
+      .select(['action', 'actor_email', 'detail'])
+      .where('action', 'in', ['auth.sign_in', 'auth.sign_in_failed'])
+      .execute();
+    expect(events.some((e) => e.action === 'auth.sign_in' && e.actor_email === user.email)).toBe(
+      true,
+    );
+    expect(
+      events.some(
+        (e) => e.action === 'auth.sign_in_failed' && e.actor_email === 'nobody@example.com',
+      ),
+    ).toBe(true);
+  });
+
+  test('sign-out ends the session on the server, not only in the browser', async () => {
+    const agent = t.agent();
+    const signedIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    const stolenCookie = (sessionCookie(signedIn.headers['set-cookie']) as string).split(';')[0];
+    expect((await agent.get('/api/auth/me')).status).toBe(200);
+    const out = await agent.post('/api/auth/sign-out');
+    expect(out.status).toBe(204);
+    expect((await agent.get('/api/auth/me')).status).toBe(401);
+    // Even a copy of the old cookie no longer works.
+    expect((await t.agent().get('/api/auth/me').set('Cookie', stolenCookie)).status).toBe(401);
+  });
+
+  test('Secure is set when served over HTTPS behind a trusted proxy (X-Forwarded-Proto)', async () => {
+    const proxied = await createTestApp({ env: { QUARRY_TRUST_PROXY: '1' } });
+    try {
+      const person = await proxied.buildUser();
+      const https = proxied.baseUrl.replace('http:', 'https:');
+      const response = await proxied
+        .agent()
+        .post('/api/auth/sign-in')
+        .set('X-Forwarded-Proto', 'https')
+        .set('Origin', https)
+        .send({ email: person.email, password: person.password });
+      expect(response.status).toBe(200);
+      expect(
+        attributes(sessionCookie(response.headers['set-cookie']) as string).has('secure'),
+      ).toBe(true);
+    } finally {
+      await proxied.close();
+    }
+  });
+});
+
+describe('password change', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await createTestApp();
+  });
+  afterAll(() => t.close());
+
+  test('ends every session of the user, keeps this browser signed in, and swaps the password', async () => {
+    const user = await t.buildUser();
+    const other = await t.buildUser();
+    const here = await t.signIn(t.agent(), user.email, user.password);
+    const elsewhere = await t.signIn(t.agent(), user.email, user.password);
+    const someoneElse = await t.agentFor(other);
+
+    const wrong = await here
+      .post('/api/auth/password')
+      .send({ currentPassword: 'nope', newPassword: 'a brand new passphrase' });
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error).toEqual({
+      code: 'validation_failed',
+      message: 'currentPassword: is incorrect',
+      field: 'currentPassword',
+    });
+
+    const short = await here
+      .post('/api/auth/password')
+      .send({ currentPassword: user.password, newPassword: 'short' });
+    expect(short.status).toBe(400);
+    expect(short.body.error.field).toBe('newPassword');
+
+    const changed = await here
+      .post('/api/auth/password')
+      .send({ currentPassword: user.password, newPassword: 'a brand new passphrase' });
+    expect(changed.status).toBe(200);
+    expect((await here.get('/api/auth/me')).status).toBe(200);
+    expect((await elsewhere.get('/api/auth/me')).status).toBe(401);
+    expect((await someoneElse.get('/api/auth/me')).status).toBe(200);
+
+    const oldPassword = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    expect(oldPassword.status).toBe(401);
+    await t.signIn(t.agent(), user.email, 'a brand new passphrase');
+    const audit = await t.ctx.db
+      .selectFrom('audit_events')
+      .select('action')
+      .where('actor_id', '=', user.id)
+      .execute();
+    expect(audit.map((e) => e.action)).toContain('auth.password_changed');
+  });
+});
+
+describe('failed sign-in rate limits', () => {
+  let t: TestApp;
+  beforeEach(async () => {
+    t = await createTestApp();
+  });
+  afterEach(() => t.close());
+
+  const attempt = (email: string, password: string) =>
+    t.agent().post('/api/auth/sign-in').send({ email, password });
+
+  test(`per account: after ${SIGN_IN_MAX_FAILURES_PER_ACCOUNT} failures even the right password gets 429 with Retry-After; other accounts are unaffected`, async () => {
+    const user = await t.buildUser();
+    const bystander = await t.buildUser();
+    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT; i++) {
+      expect((await attempt(user.email, `wrong ${i}`)).status).toBe(401);
+    }
+    const blocked = await attempt(user.email, user.password);
+    expect(blocked.status).toBe(429);
+    expect(blocked.body.error.code).toBe('rate_limited');
+    const retryAfter = Number(blocked.headers['retry-after']);
+    expect(retryAfter).toBeGreaterThan(0);
+    expect(retryAfter).toBeLessThanOrEqual(15 * 60);
+    expect((await attempt(bystander.email, bystander.password)).status).toBe(200);
+  });
+
+  test('unknown accounts are limited the same way (the limit does not reveal existence)', async () => {
+    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT; i++) {
+      expect((await attempt('ghost@example.com', 'x')).status).toBe(401);
+    }
+    expect((await attempt('ghost@example.com', 'x')).status).toBe(429);
+  });
+
+  test('successful sign-ins do not count towards the limit', async () => {
+    const user = await t.buildUser();
+    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT + 3; i++) {
+      expect((await attempt(user.email, user.password)).status).toBe(200);
+    }
+    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT - 1; i++) {
+      expect((await attempt(user.email, 'wrong')).status).toBe(401);
+    }
+    // Still one failure short of the limit: the right password works.
+    expect((await attempt(user.email, user.password)).status).toBe(200);
+    expect((await attempt(user.email, 'wrong')).status).toBe(401);
+    expect((await attempt(user.email, user.password)).status).toBe(429);
+  });
+
+  test(`per client address: ${SIGN_IN_MAX_FAILURES_PER_IP} failures across many accounts, then 429 for everyone from there`, async () => {
+    const user = await t.buildUser();
+    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_IP; i++) {
+      expect((await attempt(`spray-${i}@example.com`, 'Winter2021!')).status).toBe(401);
+    }
+    const blocked = await attempt(user.email, user.password);
+    expect(blocked.status).toBe(429);
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+  });
+});
+
+describe('cross-site request forgery', () => {
+  let t: TestApp;
+  let user: TestUser;
+  beforeAll(async () => {
+    t = await createTestApp({ env: { QUARRY_PUBLIC_ORIGIN: 'https://quarry.example.com' } });
+    user = await t.buildUser();
+  });
+  afterAll(() => t.close());
+
+  test('a mutating request from a foreign Origin is refused with 403 csrf_rejected', async () => {
+    const agent = await t.agentFor(user);
+    const response = await agent
+      .post('/api/auth/password')
+      .set('Origin', 'https://evil.example')
+      .send({ currentPassword: user.password, newPassword: 'attacker chosen password' });
+    expect(response.status).toBe(403);
+    expect(response.body.error.code).toBe('csrf_rejected');
+    expect(response.body.error.message).toContain('https://evil.example');
+  });
+
+  test('a mutating request with neither Origin nor Referer is refused', async () => {
+    const request = (await import('supertest')).default;
+    const response = await request(t.baseUrl)
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    expect(response.status).toBe(403);
+    expect(response.body.error.code).toBe('csrf_rejected');
+  });
+
+  test('same-origin Referer, the configured public origin, and GET requests pass', async () => {
+    const request = (await import('supertest')).default;
+    const byReferer = await request(t.baseUrl)
+      .post('/api/auth/sign-in')
+      .set('Referer', `${t.baseUrl}/sign-in`)
+      .send({ email: user.email, password: user.password });
+    expect(byReferer.status).toBe(200);
+    const byPublicOrigin = await request(t.baseUrl)
+      .post('/api/auth/sign-in')
+      .set('Origin', 'https://quarry.example.com')
+      .send({ email: user.email, password: user.password });
+    expect(byPublicOrigin.status).toBe(200);
+    const get = await request(t.baseUrl).get('/api/auth/me').set('Origin', 'https://evil.example');
+    expect(get.status).toBe(401);
+  });
+});
