@@ -14,7 +14,7 @@ export type SearchMode = 'concept' | 'keyword' | 'hybrid';
 export const SEARCH_MODES: readonly SearchMode[] = ['concept', 'keyword', 'hybrid'];
 
 /** Tuned on Cranfield (docs/RETRIEVAL.md). */
-export const DEFAULT_HYBRID = { keywordWeight: 0.5, conceptDims: 100 };
+export const DEFAULT_HYBRID = { keywordWeight: 0.3, conceptDims: 100 };
 
 export type KeywordSource = (query: string, limit: number) => Scored<DocId>[];
 
