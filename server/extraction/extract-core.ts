@@ -1,25 +1,19 @@
 // From a file on disk to extracted text and metadata, in the calling thread. Pure: no
 // Express, no database. Never throws for bad input: every library error is mapped to a
 // reason a paralegal reads. extract.ts runs this in a worker thread with a hard time limit.
-import { readFile, stat } from 'node:fs/promises';
+import { readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { htmlToText } from 'html-to-text';
-import { simpleParser, type AddressObject, type ParsedMail } from 'mailparser';
-import mammoth from 'mammoth';
-import { PDFParse } from 'pdf-parse';
+import type { AddressObject, ParsedMail } from 'mailparser';
 import { decodeText } from './charset';
-import { sniffFile } from './sniff';
+import { fail, precheckFile } from './precheck';
 import { inflatesWithin, listZipNames, readZipEntry } from './zip-names';
 import {
   EXTRACT_DEFAULTS,
-  MIME_OF,
   type ChildFile,
-  type ExtractFailure,
   type ExtractLimits,
   type ExtractResult,
   type ExtractSuccess,
   type FailureReason,
-  type FileKind,
   type SniffResult,
 } from './types';
 
@@ -73,6 +67,7 @@ async function extractPdf(
 ): Promise<Fields> {
   const bytes = await readFile(filePath);
   // A copy: pdf.js may transfer (detach) the buffer it is given.
+  const { PDFParse } = await import('pdf-parse');
   const parser = new PDFParse({ data: new Uint8Array(bytes), verbosity: 0 });
   onCancel(() => void parser.destroy().catch(() => undefined));
   try {
@@ -144,6 +139,7 @@ async function extractDocx(filePath: string, size: number, limits: ExtractLimits
   }
   let raw: string;
   try {
+    const mammoth = (await import('mammoth')).default;
     raw = (await mammoth.extractRawText({ path: filePath })).value;
   } catch {
     throw new Refused('not a valid DOCX');
@@ -224,6 +220,8 @@ const HTML_OPTIONS = (maxChars: number) => ({
 });
 
 async function extractEmail(filePath: string, limits: ExtractLimits): Promise<Fields> {
+  const { simpleParser } = await import('mailparser');
+  const { htmlToText } = await import('html-to-text');
   const mail = await simpleParser(await readFile(filePath), {
     skipImageLinks: true,
     skipTextLinks: true,
@@ -247,6 +245,7 @@ async function extractHtml(
   charset: string | undefined,
   limits: ExtractLimits,
 ): Promise<Fields> {
+  const { htmlToText } = await import('html-to-text');
   const decoded = decodeText(await readFile(filePath), charset);
   const fields = blank();
   fields.charset = decoded.charset;
@@ -274,39 +273,6 @@ async function extractPlain(
 }
 
 // ---- Entry point -----------------------------------------------------------------------
-
-const fail = (kind: FileKind, reason: FailureReason): ExtractFailure => ({
-  ok: false,
-  kind,
-  mime: MIME_OF[kind],
-  reason,
-});
-
-/** What the cheap checks found: a final failure, or a sniffed type ready to extract. */
-export type Precheck =
-  { done: ExtractFailure } | { done: null; sniffed: SniffResult; size: number };
-
-/** Size and type checks that need no parsing (run before handing a file to a worker). */
-export async function precheckFile(
-  filePath: string,
-  originalName: string,
-  limits: ExtractLimits,
-): Promise<Precheck> {
-  let size: number;
-  let sniffed: SniffResult;
-  try {
-    size = (await stat(filePath)).size;
-    if (size === 0) return { done: fail('unknown', 'empty file') };
-    sniffed = await sniffFile(filePath, originalName);
-  } catch {
-    return { done: fail('unknown', 'file could not be read') };
-  }
-  const { kind } = sniffed;
-  if (size > limits.maxFileBytes) return { done: fail(kind, 'file exceeds the size limit') };
-  if (kind === 'unknown') return { done: fail(kind, 'unsupported type') };
-  if (kind === 'zip') return { done: fail(kind, 'archive must be expanded, not extracted') };
-  return { done: null, sniffed, size };
-}
 
 /** Parses a file whose type is known. The timeout here only helps when parsers yield. */
 export async function extractSniffed(

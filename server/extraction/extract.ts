@@ -2,7 +2,7 @@
 // file (a PDF that spins, a DOCX that eats memory) can be stopped: on timeout the worker is
 // terminated, which a Promise.race in the same thread cannot do to synchronous parser work.
 import { Worker } from 'node:worker_threads';
-import { extractInProcess, precheckFile } from './extract-core';
+import { precheckFile } from './precheck';
 import {
   EXTRACT_DEFAULTS,
   MIME_OF,
@@ -11,8 +11,6 @@ import {
   type FailureReason,
   type SniffResult,
 } from './types';
-
-export { extractInProcess } from './extract-core';
 
 const WORKER_URL = new URL('./extract-worker.mjs', import.meta.url);
 
@@ -231,5 +229,13 @@ export async function closeExtractionPool(): Promise<void> {
   await pool?.close();
 }
 
-/** Same as extractFile but in the calling thread, without a hard time limit. */
-export const extractFileInProcess = extractInProcess;
+/** Same as extractFile but in the calling thread, without a hard time limit (tools, tests). */
+export async function extractFileInProcess(
+  filePath: string,
+  originalName: string,
+  limits: Partial<ExtractLimits> = {},
+): Promise<ExtractResult> {
+  // Loaded on demand so that importing this module does not load every parser.
+  const { extractInProcess } = await import('./extract-core');
+  return extractInProcess(filePath, originalName, limits);
+}
