@@ -8,8 +8,11 @@ import * as devMail from './routes/dev-mail';
 import * as invitation from './routes/invitation';
 import * as matterAccess from './routes/matter/access';
 import * as matterActivity from './routes/matter/activity';
+import * as matterDocument from './routes/matter/documents-item';
+import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
+import * as matterUpload from './routes/matter/upload';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteError } from './routes/route-error';
@@ -53,6 +56,21 @@ export function createAppRouter(queryClient: QueryClient) {
           ErrorBoundary: RouteError,
           children: [
             { index: true, Component: matterHome.MatterHomeRoute },
+            {
+              path: 'documents',
+              loader: matterDocuments.clientLoader(queryClient),
+              Component: matterDocuments.DocumentsRoute,
+            },
+            {
+              path: 'documents/:docId',
+              loader: matterDocument.clientLoader(queryClient),
+              Component: matterDocument.DocumentRoute,
+            },
+            {
+              path: 'upload',
+              loader: matterUpload.clientLoader(queryClient),
+              Component: matterUpload.UploadRoute,
+            },
             {
               path: 'access',
               loader: matterAccess.clientLoader(queryClient),

@@ -28,7 +28,7 @@ export function AppLayout() {
       >
         Skip to content
       </a>
-      <header className="border-b border-line bg-panel">
+      <header className="border-t-[3px] border-b border-t-accent border-b-line bg-panel">
         <div className="mx-auto flex h-12 max-w-[88rem] items-center gap-5 px-4">
           <Wordmark />
           <nav aria-label="Main" className="flex items-center gap-1">

@@ -5,7 +5,7 @@ import { Wordmark } from './wordmark';
 export function PublicLayout({ children, wide = false }: { children: ReactNode; wide?: boolean }) {
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="border-b border-line bg-panel">
+      <header className="border-t-[3px] border-b border-t-accent border-b-line bg-panel">
         <div className="mx-auto flex h-12 max-w-[88rem] items-center px-4">
           <Wordmark to="/" />
         </div>

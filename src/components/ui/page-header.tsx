@@ -18,7 +18,7 @@ export function PageHeader({
         {eyebrow ? <div className="text-xs font-medium text-ink-muted">{eyebrow}</div> : null}
         <h1 className="text-xl font-semibold tracking-tight text-ink">{title}</h1>
         {description ? (
-          <div className="mt-0.5 max-w-prose text-sm text-ink-muted">{description}</div>
+          <div className="mt-1 max-w-prose text-sm text-ink-muted">{description}</div>
         ) : null}
       </div>
       {actions ? <div className="flex shrink-0 items-center gap-2">{actions}</div> : null}

@@ -26,6 +26,20 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     summary: 'The matter at a glance and your role on it.',
   },
   {
+    id: 'documents',
+    label: 'Documents',
+    path: 'documents',
+    permission: 'documents.read',
+    summary: 'Every file loaded, its control number and status, and the concept index.',
+  },
+  {
+    id: 'upload',
+    label: 'Upload',
+    path: 'upload',
+    permission: 'documents.upload',
+    summary: 'Add files or a .zip for a custodian and follow their extraction and indexing.',
+  },
+  {
     id: 'access',
     label: 'Access',
     path: 'access',
