@@ -15,8 +15,7 @@ import { hashPassword, verifyPassword } from '../auth/password';
 import type { AppContext } from '../context';
 import { conflict, HttpError, matterNotFound, notFound, validationError } from '../http/errors';
 import { findMatterById } from '../matters/queries';
-import { findMemberRow, insertMember, listPendingInvitationRows } from '../members/queries';
-import { invitationRowToPending } from '../members/service';
+import { findMemberRow, insertMember } from '../members/queries';
 import { findUserByEmail, findUserById, insertUser } from '../users/queries';
 import { userRowToApiUser } from '../users/service';
 import { invitationMail } from './mail';
@@ -124,11 +123,16 @@ export async function createInvitation(
       502,
     );
   }
-  const pending = (
-    await listPendingInvitationRows(ctx.db, matterId, new Date().toISOString())
-  ).find((row) => row.id === id);
-  if (!pending) throw notFound('Invitation');
-  return invitationRowToPending(pending);
+  const row = await findInvitationInMatter(ctx.db, matterId, id);
+  if (!row) throw notFound('Invitation');
+  return {
+    id,
+    email: row.email,
+    role: row.role as MatterRole,
+    invitedBy: { id: actor.id, name: actor.name, email: actor.email },
+    createdAt: row.created_at,
+    expiresAt: row.expires_at,
+  };
 }
 
 export async function previewInvitation(
