@@ -8,6 +8,7 @@ import { makeDocx, makeZip } from '../../corpus-demo/render';
 import {
   makeLyingZip,
   makeNestedZip,
+  makeZipWithEncryptedEntries,
   makeZipBomb,
   makeZipWithRawNames,
 } from '../../tests/fixtures/hostile-zips';
@@ -186,6 +187,24 @@ describe('expandArchive', () => {
       expect(await readdir(path.dirname(sandbox))).not.toContain('escape.txt');
     });
   }
+
+  it('skips an encrypted entry (APPNOTE §4.4.4 bit 0) as "encrypted archive" and keeps the others', async () => {
+    await writeFile(
+      zipPath,
+      await makeZipWithEncryptedEntries(
+        [
+          { name: 'locked.txt', content: Buffer.from('secret') },
+          { name: 'open.txt', content: Buffer.from('public') },
+        ],
+        ['locked.txt'],
+      ),
+    );
+    const result = await expandArchive(zipPath, target, small);
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.files.map((f) => f.relativePath)).toEqual(['open.txt']);
+    expect(result.skipped).toEqual([{ relativePath: 'locked.txt', reason: 'encrypted archive' }]);
+  });
 
   it('reports a corrupt archive as "not a valid ZIP archive"', async () => {
     const zip = await makeZip([{ name: 'a.txt', content: Buffer.from('hello world') }]);
