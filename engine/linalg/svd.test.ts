@@ -242,3 +242,14 @@ describe('diagnostics', () => {
     expect(conditionNumber([1, 0])).toBe(Infinity);
   });
 });
+
+describe('two-thread randomized SVD', () => {
+  it('gives the same result as one thread (same seed)', () => {
+    const a = randomSparse(300, 200, 0.05, 21);
+    const one = truncatedSvd(a, { k: 8, seed: 3 });
+    const two = truncatedSvd(a, { k: 8, seed: 3, threads: 2 });
+    expect(two.method).toMatch(/2 threads/);
+    expect(maxRelativeError(two.s, one.s, 8)).toBeLessThan(1e-12);
+    expect(orthogonalityError(two.U, 300, 8)).toBeLessThan(1e-8);
+  });
+});

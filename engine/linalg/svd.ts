@@ -15,6 +15,7 @@ import { SingularValueDecomposition, Matrix } from 'ml-matrix';
 import { type CsrMatrix, csrTimesBlock, csrTimesVector, transposeCsr } from '../sparse/csr';
 import { orthonormalize, timesSmall } from './dense';
 import { fillGaussian, mulberry32 } from './random';
+import { parallelCsrOperator } from './parallel';
 
 export interface SvdOptions {
   k: number;
@@ -24,7 +25,10 @@ export interface SvdOptions {
   /** Number of A A^T applications after the first A Omega (Halko et al.'s q). */
   powerIterations?: number;
   seed?: number;
-  /** Accepted for interface stability; the synchronous solver runs on one thread. */
+  /**
+   * 2 (or more) runs the randomized solver's sparse products on two threads (the
+   * caller plus one worker thread over shared memory); default 1. Still synchronous.
+   */
   threads?: number;
   onProgress?: (fraction: number) => void;
   /** Lanczos only: Ritz residual tolerance relative to sigma_1 (default 1e-10). */
@@ -89,6 +93,14 @@ export function truncatedSvd(a: CsrMatrix, options: SvdOptions): TruncatedSvd {
   const method = options.method ?? 'randomized';
   if (method === 'lanczos') return lanczosSvd(a, options);
   if (method !== 'randomized') throw new RangeError(`unknown SVD method "${String(method)}"`);
+  if ((options.threads ?? 1) >= 2) {
+    const operator = parallelCsrOperator(a);
+    try {
+      return randomizedSvdWith(operator, options);
+    } finally {
+      operator.close();
+    }
+  }
   return randomizedSvd(a, transposeCsr(a), options);
 }
 
@@ -100,6 +112,8 @@ export interface BlockOperator {
   times(x: Float64Array, b: number, y: Float64Array): void;
   /** y (cols x b) = A^T x, x is rows x b. */
   timesTranspose(x: Float64Array, b: number, y: Float64Array): void;
+  /** Allocates a dense block the operator can read and write (e.g. shared memory). */
+  allocate?(length: number): Float64Array;
 }
 
 export function csrOperator(a: CsrMatrix, at: CsrMatrix): BlockOperator {
@@ -117,6 +131,7 @@ function transposed(op: BlockOperator): BlockOperator {
     cols: op.rows,
     times: op.timesTranspose,
     timesTranspose: op.times,
+    allocate: op.allocate,
   };
 }
 
@@ -141,9 +156,10 @@ export function randomizedSvdWith(operator: BlockOperator, options: SvdOptions):
   let step = 0;
   const progress = () => options.onProgress?.(Math.min(1, ++step / totalSteps));
 
-  const omega = new Float64Array(n * l);
+  const allocate = (length: number) => op.allocate?.(length) ?? new Float64Array(length);
+  const omega = allocate(n * l);
   fillGaussian(omega, options.seed ?? 0x5eed);
-  const y = new Float64Array(m * l);
+  const y = allocate(m * l);
   op.times(omega, l, y);
   progress();
   const z = omega; // reuse: n x l
@@ -179,7 +195,7 @@ export function randomizedSvdWith(operator: BlockOperator, options: SvdOptions):
     U: flip ? vOut : uOut,
     V: flip ? uOut : vOut,
     ms: performance.now() - started,
-    method: `randomized (q=${q}, p=${l - k})`,
+    method: `randomized (q=${q}, p=${l - k}${operator.allocate ? ', 2 threads' : ''})`,
   };
 }
 
