@@ -1,0 +1,88 @@
+// The concept engine's public surface, for the server, the worker thread and the CLI.
+// Pure TypeScript over typed arrays; no Express, no server imports.
+export { analyze, tokenize, ANALYZER_VERSION } from './text/analyzer';
+export { buildTermDocumentMatrix, type TermDocumentMatrix } from './index/term-document';
+export {
+  globalWeights,
+  applyWeights,
+  localWeight,
+  WEIGHTINGS,
+  type Weighting,
+} from './index/weighting';
+export {
+  ConceptSpace,
+  EngineInputError,
+  SCALINGS,
+  type BuildDiagnostics,
+  type ConceptSpaceData,
+  type ConceptSpaceOptions,
+  type ConceptSpaceParams,
+  type DocId,
+  type FoldedDocument,
+  type Scaling,
+  type SourceDocument,
+  type WeightedTerms,
+} from './index/concept-space';
+export {
+  saveConceptSpace,
+  saveFoldedDocuments,
+  loadConceptSpace,
+  decodeSingularValues,
+  diagnosticsColumns,
+  INDEX_FORMAT_VERSION,
+  type IndexTables,
+  type SaveTarget,
+  type SaveOptions,
+} from './index/persist';
+export { topCosine, type TopN, type TopNOptions } from './search/top-n';
+export {
+  toFtsMatchExpression,
+  keywordSearch,
+  KEYWORD_TABLES_DDL,
+  type KeywordHit,
+  type KeywordSearchOptions,
+} from './search/keyword';
+export { fuseScores, minMaxNormalise, type FusedHit, type Scored } from './search/fusion';
+export {
+  search,
+  similarDocuments,
+  conceptRanking,
+  DEFAULT_HYBRID,
+  SEARCH_MODES,
+  type KeywordSource,
+  type SearchHit,
+  type SearchMode,
+  type SearchOptions,
+  type SearchResult,
+} from './search/search';
+export {
+  explainMatch,
+  nearestTerms,
+  type Explanation,
+  type NearTerm,
+  type TermContribution,
+} from './search/explain';
+export {
+  evaluateRanking,
+  meanMetrics,
+  type MeanMetrics,
+  type QueryMetrics,
+  type Qrels,
+} from './eval/metrics';
+export {
+  readDocsJsonl,
+  readQueriesJsonl,
+  readQrels,
+  parseDocsJsonl,
+  parseQueriesJsonl,
+  parseQrels,
+  EvalInputError,
+  type EvalDocument,
+  type EvalQuery,
+} from './eval/readers';
+export {
+  prepareCollection,
+  runEvaluation,
+  type PreparedCollection,
+  type EvaluationRun,
+} from './eval/evaluate';
