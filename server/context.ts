@@ -5,6 +5,13 @@ import { createAuth, type Auth } from './auth/session';
 import type { Config } from './config';
 import { migrateToLatest, openDatabase, type Db } from './db/database';
 import { createMailer, type Mailer } from './mail/mailer';
+import { ExtractionPool } from './extraction/extract';
+import { IndexService } from './indexing/service';
+import { buildIndexHandler } from './jobs/build-index';
+import { extractBatchHandler } from './jobs/extract-batch';
+import { JobRunner } from './jobs/runner';
+import { BlobStore } from './storage/blob-store';
+import { sweepStaleTempDirs } from './storage/temp-dirs';
 
 /**
  * Everything a request handler or job needs, built once per process (or per test app).
@@ -19,6 +26,14 @@ export interface AppContext {
   auth: Auth;
   mail: Mailer;
   logger: Logger;
+  /** Content-addressed originals (SHA-256) under <dataDir>/blobs. */
+  blobs: BlobStore;
+  /** Extraction worker threads (hard time limit per file). */
+  extraction: ExtractionPool;
+  /** Background jobs (extract-batch, build-index) over the jobs table. */
+  jobs: JobRunner;
+  /** Each matter's concept space: getSpace(matterId) for search; fold-in and rebuilds. */
+  index: IndexService;
   /** Stops services in reverse order of creation, then closes the database. */
   close(): Promise<void>;
 }
@@ -37,21 +52,40 @@ export async function createContext(config: Config): Promise<AppContext> {
     closers.push(() => mail.close());
 
     // Add new services here (and a closer for each).
+    const blobs = new BlobStore(config.dataDir);
+    await blobs.sweepIncoming();
+    await sweepStaleTempDirs(config.dataDir);
+    const extraction = new ExtractionPool({ size: 1 });
+    closers.push(() => extraction.close());
+    const index = new IndexService(db, config, logger);
+    closers.push(() => index.close());
+    const jobs = new JobRunner(db, logger);
+    index.attachJobs(jobs);
+    closers.push(() => jobs.close());
 
     let closed = false;
-    return {
+    const ctx: AppContext = {
       config,
       db,
       sqlite,
       auth,
       mail,
       logger,
+      blobs,
+      extraction,
+      jobs,
+      index,
       async close() {
         if (closed) return;
         closed = true;
         for (const close of closers.reverse()) await close();
       },
     };
+    jobs.register('extract-batch', extractBatchHandler(ctx));
+    jobs.register('build-index', buildIndexHandler(ctx));
+    await index.recoverInterrupted();
+    await jobs.start();
+    return ctx;
   } catch (error) {
     for (const close of closers.reverse()) await close();
     throw error;

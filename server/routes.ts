@@ -2,8 +2,11 @@ import { adminRoutes } from './admin/router';
 import { auditRoutes } from './audit/router';
 import { authRoutes } from './auth/router';
 import { devRoutes } from './dev/router';
+import { documentRoutes } from './documents/router';
 import type { AnyRouteSpec } from './http/route';
+import { indexRoutes } from './indexing/router';
 import { invitationRoutes } from './invitations/router';
+import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
 
@@ -19,4 +22,7 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...invitationRoutes,
   ...auditRoutes,
   ...devRoutes,
+  ...documentRoutes,
+  ...jobRoutes,
+  ...indexRoutes,
 ];

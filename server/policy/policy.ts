@@ -10,9 +10,9 @@ import {
   type MatterRole,
 } from '../../shared/roles';
 import type { Db } from '../db/database';
-import { forbidden, matterNotFound, unauthenticated } from '../http/errors';
+import { forbidden, matterNotFound, notFound, unauthenticated } from '../http/errors';
 import type { SessionUser } from '../http/request-context';
-import { findMemberRole } from './queries';
+import { findJobMatterId, findMemberRole } from './queries';
 
 // THE policy module: every permission decision in the server is made here, from
 // the table in shared/roles.ts (which the client reads to hide what a role may not do).
@@ -24,9 +24,11 @@ import { findMemberRole } from './queries';
  * - { firm: P }: a firm permission, held by accounts with the admin flag;
  * - { matter: P }: a member of the route's :matterId whose role holds P. Non-members
  *   (firm admins included) get the same 404 as a matter that does not exist.
+ * - { matter: P, via: 'job' }: the same rule for a route without :matterId whose matter is
+ *   the one of its :jobId (GET /api/jobs/:jobId); unknown jobs and non-members get 404.
  */
 export type Access =
-  'public' | 'signed-in' | { firm: FirmPermission } | { matter: MatterPermission };
+  'public' | 'signed-in' | { firm: FirmPermission } | { matter: MatterPermission; via?: 'job' };
 
 export type Principal =
   { kind: 'anonymous' } | { kind: 'user'; user: SessionUser; matterRole: MatterRole | null };
@@ -59,7 +61,8 @@ export function isMatterAccess(access: Access): access is { matter: MatterPermis
 /** Describes an access rule for docs and test names, e.g. "matter:documents.upload". */
 export function describeAccess(access: Access): string {
   if (typeof access === 'string') return access;
-  return 'firm' in access ? `firm:${access.firm}` : `matter:${access.matter}`;
+  if ('firm' in access) return `firm:${access.firm}`;
+  return access.via ? `matter:${access.matter} (via ${access.via})` : `matter:${access.matter}`;
 }
 
 /** Throws when a declared access rule names a permission that does not exist. */
@@ -67,7 +70,12 @@ export function assertKnownAccess(access: Access, where: string): void {
   if (typeof access === 'string') {
     if (access === 'public' || access === 'signed-in') return;
   } else if ('firm' in access && FIRM_PERMISSIONS.includes(access.firm)) return;
-  else if ('matter' in access && MATTER_PERMISSIONS.includes(access.matter)) return;
+  else if (
+    'matter' in access &&
+    MATTER_PERMISSIONS.includes(access.matter) &&
+    (access.via === undefined || access.via === 'job')
+  )
+    return;
   throw new Error(`${where}: unknown access rule ${JSON.stringify(access)}`);
 }
 
@@ -75,6 +83,13 @@ function parseMatterId(raw: unknown): number | null {
   if (typeof raw !== 'string' || !/^[1-9]\d{0,15}$/.test(raw)) return null;
   const id = Number(raw);
   return Number.isSafeInteger(id) ? id : null;
+}
+
+/** The matter of a job named by a route's :jobId (null when unknown or matter-less). */
+async function matterOfJob(db: Db, raw: unknown): Promise<number | null> {
+  const jobId = parseMatterId(raw);
+  if (jobId === null) return null;
+  return (await findJobMatterId(db, jobId))?.matter_id ?? null;
 }
 
 function asRole(value: string | undefined): MatterRole | null {
@@ -93,9 +108,12 @@ export function requireAccess(db: Db, access: Access): RequestHandler {
     const user = req.auth?.user ?? null;
     let matterRole: MatterRole | null = null;
     let matterId: number | null = null;
+    const viaJob = isMatterAccess(access) && access.via === 'job';
     if (isMatterAccess(access) && user) {
-      matterId = parseMatterId(req.params.matterId);
-      if (matterId === null) return next(matterNotFound());
+      matterId = viaJob
+        ? await matterOfJob(db, req.params.jobId)
+        : parseMatterId(req.params.matterId);
+      if (matterId === null) return next(viaJob ? notFound('Job') : matterNotFound());
       matterRole = asRole(await findMemberRole(db, matterId, user.id));
     }
     const decision = decide(
@@ -110,7 +128,7 @@ export function requireAccess(db: Db, access: Access): RequestHandler {
       case 'unauthenticated':
         return next(unauthenticated());
       case 'not_found':
-        return next(matterNotFound());
+        return next(viaJob ? notFound('Job') : matterNotFound());
       case 'forbidden':
         return next(forbidden(forbiddenMessage(access, matterRole)));
     }
@@ -124,6 +142,17 @@ function forbiddenMessage(access: Access, role: MatterRole | null): string {
     return `A ${ROLE_LABELS[role].toLowerCase()} on this matter may not do this (${access.matter}).`;
   }
   return 'You may not do this.';
+}
+
+/**
+ * Deleting a document: a failed one may be removed by whoever may organise documents
+ * (to clear a bad load); any other needs documents.delete (leads).
+ */
+export function assertCanDeleteDocument(role: MatterRole, extractStatus: string): void {
+  assertMatterPermission(
+    role,
+    extractStatus === 'failed' ? 'documents.organise' : 'documents.delete',
+  );
 }
 
 /** For services that must check a permission inside a handler (e.g. per-action rules). */

@@ -17,3 +17,8 @@ export async function findMemberRole(
     .executeTakeFirst();
   return row?.role;
 }
+
+/** The matter a job belongs to (for routes addressed by job id). */
+export function findJobMatterId(db: Executor, jobId: number) {
+  return db.selectFrom('jobs').select('matter_id').where('id', '=', jobId).executeTakeFirst();
+}

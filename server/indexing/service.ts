@@ -1,0 +1,448 @@
+// The index service: each matter's current concept space in memory (loaded from SQLite
+// on first use), folding-in of newly extracted documents (Deerwester et al. 1990, §4),
+// and full rebuilds in a worker thread that replace the serving version in one
+// transaction. Other features (search) call getSpace / getIndex.
+import { Worker } from 'node:worker_threads';
+import type { Kysely } from 'kysely';
+import type { Logger } from 'pino';
+import type { ConceptSpace } from '../../engine/index/concept-space';
+import {
+  decodeSingularValues,
+  loadConceptSpace,
+  saveFoldedDocuments,
+  type IndexTables,
+} from '../../engine/index/persist';
+import type { Weighting } from '../../engine/index/weighting';
+import {
+  INDEX_K_DEFAULT,
+  type IndexStateResponse,
+  type IndexVersionInfo,
+  type IndexWeighting,
+  type RebuildIndexReq,
+} from '../../shared/schemas/indexing';
+import { recordAudit } from '../audit/record';
+import type { Config } from '../config';
+import type { Db } from '../db/database';
+import type { IndexVersionRow } from '../db/schema';
+import { countExtracted, countIndexStates, listExtractedNotInIndex } from '../documents/queries';
+import { conflict } from '../http/errors';
+import { findActiveJob, findJob } from '../jobs/queries';
+import { jobRowToApi } from '../jobs/map';
+import type { JobRun, JobRunner } from '../jobs/runner';
+import type { BuildRequest, BuildSummary } from './build-core';
+import {
+  countFoldedIn,
+  currentIndexIdOf,
+  failStaleBuilds,
+  findIndexVersion,
+  insertBuildingVersion,
+  latestVersionWithStatus,
+  markVersionFailed,
+  pruneSuperseded,
+  switchToVersion,
+} from './queries';
+
+const WORKER_URL = new URL('./build-worker.mjs', import.meta.url);
+
+/** The serving version of a matter's index. */
+export interface LoadedIndex {
+  indexId: number;
+  version: number;
+  space: ConceptSpace;
+}
+
+/** Payload of a build-index job. */
+export interface BuildIndexPayload {
+  k?: number;
+  weighting?: IndexWeighting;
+  /** Who asked ('fold-in share' / 'first build' when the server queued it). */
+  reason: 'requested' | 'fold-in share' | 'first build';
+  requestedBy?: string | null;
+  requestedByEmail?: string | null;
+}
+
+interface ActiveBuild {
+  worker: Worker;
+  indexId: number;
+}
+
+function parseParams(row: IndexVersionRow): Record<string, unknown> {
+  try {
+    return JSON.parse(row.params) as Record<string, unknown>;
+  } catch {
+    return {};
+  }
+}
+
+/** Maps an index_versions row to the API type (with its build diagnostics). */
+export function versionToApi(row: IndexVersionRow): IndexVersionInfo {
+  const sigma = Array.from(decodeSingularValues(row.singular_values));
+  const params = parseParams(row);
+  const last = sigma.length > 0 ? sigma[sigma.length - 1] : null;
+  return {
+    id: row.id,
+    version: row.version,
+    status: row.status,
+    k: row.k,
+    requestedK: typeof params.requestedK === 'number' ? params.requestedK : null,
+    weighting: row.weighting,
+    nDocs: row.n_docs,
+    nTerms: row.n_terms,
+    nnz: row.nnz,
+    createdAt: row.created_at,
+    completedAt: row.completed_at,
+    error: row.error,
+    diagnostics: {
+      singularValues: sigma,
+      sigma1: sigma.length > 0 ? sigma[0] : null,
+      conditionNumber: sigma.length > 0 && last ? sigma[0] / last : null,
+      frobeniusSq: row.frobenius_sq,
+      energy: row.energy,
+      orthogonalityU: row.orthogonality_u,
+      orthogonalityV: row.orthogonality_v,
+      buildMs: row.build_ms,
+      peakRssMb: row.peak_rss_mb,
+    },
+  };
+}
+
+export class IndexService {
+  private readonly cache = new Map<number, LoadedIndex>();
+  private readonly loading = new Map<number, Promise<LoadedIndex | null>>();
+  private readonly locks = new Map<number, Promise<unknown>>();
+  private readonly builds = new Map<number, ActiveBuild>();
+  private jobs: JobRunner | null = null;
+
+  constructor(
+    private readonly db: Db,
+    private readonly config: Config,
+    private readonly logger: Logger,
+  ) {}
+
+  /** The runner is created after the service (its handlers call back into it). */
+  attachJobs(jobs: JobRunner): void {
+    this.jobs = jobs;
+  }
+
+  private get indexDb(): Kysely<IndexTables> {
+    return this.db as unknown as Kysely<IndexTables>;
+  }
+
+  /** Runs `work` after earlier work for the same matter (fold-ins and switches never interleave). */
+  private withLock<T>(matterId: number, work: () => Promise<T>): Promise<T> {
+    const previous = this.locks.get(matterId) ?? Promise.resolve();
+    const next = previous.then(work, work);
+    this.locks.set(
+      matterId,
+      next.catch(() => undefined),
+    );
+    return next;
+  }
+
+  /** The matter's serving index (loaded from SQLite on first use), or null before the first build. */
+  async getIndex(matterId: number): Promise<LoadedIndex | null> {
+    const indexId = await currentIndexIdOf(this.db, matterId);
+    if (indexId === null) return null;
+    const cached = this.cache.get(matterId);
+    if (cached?.indexId === indexId) return cached;
+    let pending = this.loading.get(matterId);
+    if (!pending) {
+      pending = (async () => {
+        const row = await findIndexVersion(this.db, indexId);
+        if (!row) return null;
+        const space = await loadConceptSpace(this.indexDb, indexId);
+        const loaded = { indexId, version: row.version, space };
+        this.cache.set(matterId, loaded);
+        return loaded;
+      })().finally(() => this.loading.delete(matterId));
+      this.loading.set(matterId, pending);
+    }
+    return pending;
+  }
+
+  /** The matter's current concept space, or null when none is built yet. */
+  async getSpace(matterId: number): Promise<ConceptSpace | null> {
+    return (await this.getIndex(matterId))?.space ?? null;
+  }
+
+  /** Forgets the in-memory space (after documents are deleted); the next use reloads it. */
+  invalidate(matterId: number): void {
+    this.cache.delete(matterId);
+  }
+
+  /**
+   * After extraction: fold the newly extracted documents into the serving space, or queue
+   * the first build when there is none; queue a rebuild when folded-in documents pass
+   * config.rebuildFoldInShare of the space.
+   */
+  async afterExtraction(matterId: number): Promise<{ folded: number; queuedBuild: boolean }> {
+    const current = await currentIndexIdOf(this.db, matterId);
+    if (current === null) {
+      if ((await countExtracted(this.db, matterId)) === 0) return { folded: 0, queuedBuild: false };
+      const queued = await this.queueBuild(matterId, { reason: 'first build' });
+      return { folded: 0, queuedBuild: queued !== null };
+    }
+    const folded = await this.foldInWaiting(matterId);
+    const share = await this.foldedShare(matterId);
+    let queuedBuild = false;
+    if (share !== null && share > this.config.rebuildFoldInShare) {
+      queuedBuild = (await this.queueBuild(matterId, { reason: 'fold-in share' })) !== null;
+    }
+    return { folded, queuedBuild };
+  }
+
+  /** Share of the serving space's documents that were folded in. */
+  async foldedShare(matterId: number): Promise<number | null> {
+    const indexId = await currentIndexIdOf(this.db, matterId);
+    if (indexId === null) return null;
+    const { total, folded } = await countFoldedIn(this.db, indexId);
+    return total > 0 ? folded / total : null;
+  }
+
+  /** Folds every extracted document the serving version lacks into it; returns how many. */
+  foldInWaiting(matterId: number): Promise<number> {
+    return this.withLock(matterId, async () => {
+      const loaded = await this.getIndex(matterId);
+      if (!loaded) return 0;
+      const rows = await listExtractedNotInIndex(this.db, matterId, loaded.indexId);
+      if (rows.length === 0) return 0;
+      const folded = loaded.space.foldInDocuments(
+        rows.map((row) => ({ id: row.id, title: row.title, text: row.body })),
+      );
+      await saveFoldedDocuments(this.indexDb, loaded.indexId, folded);
+      this.logger.info({ matterId, documents: folded.length }, 'documents folded into the index');
+      return folded.length;
+    });
+  }
+
+  /** Queues a build-index job unless one is already queued or running (then returns null). */
+  async queueBuild(matterId: number, payload: BuildIndexPayload): Promise<number | null> {
+    if (!this.jobs) throw new Error('index service has no job runner');
+    if (await findActiveJob(this.db, matterId, 'build-index')) return null;
+    return this.jobs.enqueue(this.db, {
+      matterId,
+      kind: 'build-index',
+      payload,
+      total: 100,
+      createdBy: payload.requestedBy ?? null,
+      message: 'Waiting to build the index',
+    });
+  }
+
+  /** POST .../index/rebuild: a lead asks for a full rebuild (409 while one is queued or running). */
+  async requestRebuild(
+    matterId: number,
+    body: RebuildIndexReq,
+    actor: { id: string; email: string; ip: string | null },
+  ) {
+    if ((await countExtracted(this.db, matterId)) === 0)
+      throw conflict('There are no extracted documents to index yet.');
+    const jobId = await this.queueBuild(matterId, {
+      k: body.k,
+      weighting: body.weighting,
+      reason: 'requested',
+      requestedBy: actor.id,
+      requestedByEmail: actor.email,
+    });
+    if (jobId === null)
+      throw conflict('An index build is already queued or running for this matter.');
+    await recordAudit(this.db, {
+      actorId: actor.id,
+      actorEmail: actor.email,
+      ip: actor.ip,
+      matterId,
+      action: 'index.rebuild_requested',
+      targetType: 'job',
+      targetId: jobId,
+      detail: { k: body.k ?? null, weighting: body.weighting ?? null },
+    });
+    const job = await findJob(this.db, jobId);
+    return { job: jobRowToApi(job!) };
+  }
+
+  /** The settings a build uses: those asked for, else the serving version's, else defaults. */
+  private async buildSettings(matterId: number, payload: BuildIndexPayload) {
+    let k = payload.k;
+    let weighting = payload.weighting as Weighting | undefined;
+    const currentId = await currentIndexIdOf(this.db, matterId);
+    const current = currentId !== null ? await findIndexVersion(this.db, currentId) : undefined;
+    if (current) {
+      const params = parseParams(current);
+      k ??= typeof params.requestedK === 'number' ? params.requestedK : current.k;
+      weighting ??= current.weighting as Weighting;
+    }
+    return { k: k ?? INDEX_K_DEFAULT, weighting: weighting ?? 'log-entropy' };
+  }
+
+  /** The build-index job: worker build, then the one-transaction switch, then catch-up fold-in. */
+  async runBuild(run: JobRun<BuildIndexPayload>): Promise<string> {
+    const matterId = run.job.matter_id;
+    if (matterId === null) throw new Error('build-index job without a matter');
+    const { k, weighting } = await this.buildSettings(matterId, run.payload);
+    const { id: indexId, version } = await insertBuildingVersion(this.db, {
+      matterId,
+      k,
+      weighting,
+      jobId: run.job.id,
+      requestedBy: run.payload.requestedBy ?? null,
+    });
+    await run.progress({
+      progress: 0,
+      total: 100,
+      message: `Building version ${version} (k = ${k})`,
+    });
+    let summary: BuildSummary;
+    try {
+      summary = await this.runWorker(matterId, indexId, { k, weighting }, run);
+    } catch (error) {
+      const message = error instanceof Error ? error.message : String(error);
+      await markVersionFailed(this.db, indexId, message);
+      await recordAudit(this.db, {
+        actorId: run.payload.requestedBy ?? null,
+        actorEmail: run.payload.requestedByEmail ?? null,
+        matterId,
+        action: 'index.rebuild_failed',
+        targetType: 'index_version',
+        targetId: indexId,
+        detail: { version, k, weighting, error: message, reason: run.payload.reason },
+      });
+      throw new Error(`index build failed: ${message}`, { cause: error });
+    }
+    await this.withLock(matterId, async () => {
+      await this.db.transaction().execute(async (trx) => {
+        const previous = await switchToVersion(trx, matterId, indexId);
+        await recordAudit(trx, {
+          actorId: run.payload.requestedBy ?? null,
+          actorEmail: run.payload.requestedByEmail ?? null,
+          matterId,
+          action: 'index.rebuilt',
+          targetType: 'index_version',
+          targetId: indexId,
+          detail: {
+            version,
+            k: summary.k,
+            requestedK: k,
+            weighting,
+            documents: summary.nDocs,
+            terms: summary.nTerms,
+            buildMs: Math.round(summary.buildMs),
+            previousIndexId: previous,
+            reason: run.payload.reason,
+            notices: summary.notices,
+          },
+        });
+      });
+      this.cache.delete(matterId);
+      await pruneSuperseded(this.db, matterId);
+    });
+    // Documents extracted while the worker ran are folded into the new version.
+    const caughtUp = await this.foldInWaiting(matterId);
+    await this.getIndex(matterId);
+    return `Version ${version} ready: ${summary.nDocs} documents, ${summary.nTerms} terms, k = ${summary.k}${
+      caughtUp > 0 ? `; ${caughtUp} folded in since` : ''
+    }`;
+  }
+
+  private runWorker(
+    matterId: number,
+    indexId: number,
+    settings: { k: number; weighting: Weighting },
+    run: JobRun<BuildIndexPayload>,
+  ): Promise<BuildSummary> {
+    const request: BuildRequest = {
+      dbFile: this.config.dbFile,
+      matterId,
+      indexId,
+      k: settings.k,
+      weighting: settings.weighting,
+    };
+    return new Promise<BuildSummary>((resolve, reject) => {
+      const worker = new Worker(WORKER_URL, { workerData: request });
+      this.builds.set(matterId, { worker, indexId });
+      let settled = false;
+      const finish = (error: Error | null, summary?: BuildSummary) => {
+        if (settled) return;
+        settled = true;
+        this.builds.delete(matterId);
+        run.signal.removeEventListener('abort', onAbort);
+        if (error) reject(error);
+        else resolve(summary!);
+      };
+      const onAbort = () => void worker.terminate();
+      run.signal.addEventListener('abort', onAbort);
+      worker.on(
+        'message',
+        (message: { type: string; fraction?: number; result?: BuildSummary; message?: string }) => {
+          if (message.type === 'progress' && typeof message.fraction === 'number') {
+            void run
+              .progress({
+                progress: Math.round(message.fraction * 100),
+                message:
+                  message.fraction < 0.9 ? 'Computing the concept space' : 'Saving the new version',
+              })
+              .catch(() => undefined);
+          } else if (message.type === 'done') finish(null, message.result);
+          else if (message.type === 'error')
+            finish(new Error(message.message ?? 'the build failed'));
+        },
+      );
+      worker.on('error', (error: Error & { code?: string }) =>
+        finish(
+          new Error(
+            error.code === 'ERR_WORKER_OUT_OF_MEMORY'
+              ? 'the build ran out of memory'
+              : `the build worker crashed: ${error.message}`,
+          ),
+        ),
+      );
+      worker.on('exit', (code) =>
+        finish(new Error(`the build worker stopped before finishing (exit code ${code})`)),
+      );
+    });
+  }
+
+  /** Stops a running build's worker (shutdown, tests); the previous version keeps serving. */
+  async terminateBuild(matterId: number): Promise<boolean> {
+    const build = this.builds.get(matterId);
+    if (!build) return false;
+    await build.worker.terminate();
+    return true;
+  }
+
+  /** True while a build worker runs for the matter. */
+  isBuilding(matterId: number): boolean {
+    return this.builds.has(matterId);
+  }
+
+  /** At start-up: versions a crash left 'building' are failed (their job is failed by the runner). */
+  async recoverInterrupted(): Promise<void> {
+    const n = await failStaleBuilds(this.db, 'interrupted by a restart');
+    if (n > 0) this.logger.warn({ versions: n }, 'index builds interrupted by a restart');
+  }
+
+  /** GET .../index */
+  async state(matterId: number): Promise<IndexStateResponse> {
+    const currentId = await currentIndexIdOf(this.db, matterId);
+    const current = currentId !== null ? await findIndexVersion(this.db, currentId) : undefined;
+    const building = await latestVersionWithStatus(this.db, matterId, 'building');
+    const failed = await latestVersionWithStatus(this.db, matterId, 'failed');
+    const activeBuild = await findActiveJob(this.db, matterId, 'build-index');
+    const activeExtraction = activeBuild
+      ? undefined
+      : await findActiveJob(this.db, matterId, 'extract-batch');
+    const active = activeBuild ?? activeExtraction;
+    return {
+      counts: await countIndexStates(this.db, matterId, currentId),
+      current: current ? versionToApi(current) : null,
+      building: building ? versionToApi(building) : null,
+      lastFailed:
+        failed && (!current || failed.version > current.version) ? versionToApi(failed) : null,
+      activeJob: active ? jobRowToApi(active) : null,
+      rebuildFoldInShare: this.config.rebuildFoldInShare,
+    };
+  }
+
+  async close(): Promise<void> {
+    await Promise.allSettled([...this.builds.values()].map((b) => b.worker.terminate()));
+  }
+}
