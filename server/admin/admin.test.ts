@@ -1,0 +1,131 @@
+// Firm administration over HTTP: accounts, matters and leads. A firm admin is not a
+// member of any matter and sees none of its contents (blueprint roles table).
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { createTestApp, type Agent, type TestApp, type TestUser } from '../../tests/helpers';
+
+let t: TestApp;
+let admin: TestUser;
+let adminAgent: Agent;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  admin = await t.buildUser({ isAdmin: true });
+  adminAgent = await t.agentFor(admin);
+});
+afterAll(() => t.close());
+
+describe('firm admin', () => {
+  test('creates an account with a temporary password that then signs in', async () => {
+    const created = await adminAgent
+      .post('/api/admin/users')
+      .send({
+        name: 'Tess Temp',
+        email: 'Tess@Example.com',
+        temporaryPassword: 'temporary password 1',
+      });
+    expect(created.status).toBe(201);
+    expect(created.body.user).toMatchObject({
+      email: 'tess@example.com',
+      name: 'Tess Temp',
+      isAdmin: false,
+      matterCount: 0,
+    });
+    await t.signIn(t.agent(), 'tess@example.com', 'temporary password 1');
+    const duplicate = await adminAgent
+      .post('/api/admin/users')
+      .send({
+        name: 'Tess Again',
+        email: 'tess@example.com',
+        temporaryPassword: 'temporary password 2',
+      });
+    expect(duplicate.status).toBe(409);
+    expect(duplicate.body.error.field).toBe('email');
+    const weak = await adminAgent
+      .post('/api/admin/users')
+      .send({ name: 'W', email: 'w@example.com', temporaryPassword: 'short' });
+    expect(weak.status).toBe(400);
+    expect(weak.body.error.field).toBe('temporaryPassword');
+    const list = await adminAgent.get('/api/admin/users');
+    expect(list.body.users.map((u: { email: string }) => u.email)).toContain('tess@example.com');
+    const audit = await t.ctx.db
+      .selectFrom('audit_events')
+      .selectAll()
+      .where('action', '=', 'user.created')
+      .execute();
+    expect(audit).toHaveLength(1);
+    expect(audit[0].actor_id).toBe(admin.id);
+  });
+
+  test('creates a matter with a lead by e-mail, and the lead (not the admin) can open it', async () => {
+    const lead = await t.buildUser({ email: 'matter.lead@example.com' });
+    const created = await adminAgent
+      .post('/api/matters')
+      .send({
+        name: 'Pellham Shipping v. Ostrava Grain',
+        controlPrefix: 'psog',
+        lead: 'Matter.Lead@example.com',
+      });
+    expect(created.status).toBe(201);
+    expect(created.body.matter).toMatchObject({
+      name: 'Pellham Shipping v. Ostrava Grain',
+      controlPrefix: 'PSOG',
+      leads: [{ id: lead.id, email: lead.email }],
+      memberCount: 1,
+    });
+    const id = created.body.matter.id;
+    expect((await (await t.agentFor(lead)).get(`/api/matters/${id}`)).body.role).toBe('lead');
+    expect((await adminAgent.get(`/api/matters/${id}`)).status).toBe(404);
+    expect((await adminAgent.get('/api/matters')).body.matters).toEqual([]);
+    const adminList = await adminAgent.get('/api/admin/matters');
+    expect(adminList.body.matters.map((m: { id: number }) => m.id)).toContain(id);
+  });
+
+  test('refuses duplicate names and prefixes (409), unknown leads and bad prefixes (400)', async () => {
+    const lead = await t.buildUser();
+    await adminAgent
+      .post('/api/matters')
+      .send({ name: 'Unique Matter', controlPrefix: 'UNQ', lead: lead.id });
+    const sameName = await adminAgent
+      .post('/api/matters')
+      .send({ name: 'unique matter', controlPrefix: 'UNQ2', lead: lead.id });
+    expect(sameName.status).toBe(409);
+    expect(sameName.body.error.field).toBe('name');
+    const samePrefix = await adminAgent
+      .post('/api/matters')
+      .send({ name: 'Other', controlPrefix: 'UNQ', lead: lead.id });
+    expect(samePrefix.status).toBe(409);
+    expect(samePrefix.body.error.field).toBe('controlPrefix');
+    const noLead = await adminAgent
+      .post('/api/matters')
+      .send({ name: 'No Lead', controlPrefix: 'NOL', lead: 'ghost@example.com' });
+    expect(noLead.status).toBe(400);
+    expect(noLead.body.error.field).toBe('lead');
+    const badPrefix = await adminAgent
+      .post('/api/matters')
+      .send({ name: 'Bad', controlPrefix: '1-A', lead: lead.id });
+    expect(badPrefix.status).toBe(400);
+    expect(badPrefix.body.error.field).toBe('controlPrefix');
+  });
+
+  test('appoints a lead (adding or promoting a member); appointing an existing lead is 409', async () => {
+    const matter = await t.buildMatter();
+    const member = await t.buildUser();
+    await t.addMember(matter, member, 'attorney');
+    const promoted = await adminAgent
+      .put(`/api/admin/matters/${matter.id}/lead`)
+      .send({ lead: member.email });
+    expect(promoted.status).toBe(200);
+    expect(promoted.body.matter.leads.map((l: { id: string }) => l.id).sort()).toEqual(
+      [matter.lead.id, member.id].sort(),
+    );
+    expect((await (await t.agentFor(member)).get(`/api/matters/${matter.id}/members`)).status).toBe(
+      200,
+    );
+    const again = await adminAgent
+      .put(`/api/admin/matters/${matter.id}/lead`)
+      .send({ lead: member.id });
+    expect(again.status).toBe(409);
+    const missing = await adminAgent.put('/api/admin/matters/99999/lead').send({ lead: member.id });
+    expect(missing.status).toBe(404);
+  });
+});
