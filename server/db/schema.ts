@@ -171,6 +171,13 @@ export interface IndexDocsTable {
   folded_in: Generated<number>;
 }
 
+/** One BLOB per matrix of an index version (engine/index/persist.ts). */
+export interface IndexBlobsTable {
+  index_id: number;
+  name: string;
+  data: Uint8Array;
+}
+
 export interface CodesTable {
   id: Generated<number>;
   matter_id: number;
@@ -244,6 +251,7 @@ export interface Database {
   index_versions: IndexVersionsTable;
   index_terms: IndexTermsTable;
   index_docs: IndexDocsTable;
+  index_blobs: IndexBlobsTable;
   codes: CodesTable;
   document_codes: DocumentCodesTable;
   privilege_entries: PrivilegeEntriesTable;
