@@ -126,17 +126,13 @@ function coreProperty(xml: string, tag: string): string | null {
 /** Largest inflated size accepted for a DOCX package (mammoth inflates it in memory). */
 const DOCX_MAX_INFLATED_FACTOR = 4;
 
-async function extractDocx(filePath: string, size: number, limits: ExtractLimits): Promise<Fields> {
+async function extractDocx(filePath: string, limits: ExtractLimits): Promise<Fields> {
   const names = await listZipNames(filePath);
   if (!names || !names.includes('word/document.xml')) throw new Refused('not a valid DOCX');
-  if (
-    !(await inflatesWithin(
-      filePath,
-      Math.max(limits.maxFileBytes, size) * DOCX_MAX_INFLATED_FACTOR,
-    ))
-  ) {
-    throw new Refused('file exceeds the size limit');
-  }
+  // mammoth inflates the whole package in memory: measure the real inflated size first.
+  const inflated = await inflatesWithin(filePath, limits.maxFileBytes * DOCX_MAX_INFLATED_FACTOR);
+  if (inflated === 'corrupt') throw new Refused('not a valid DOCX');
+  if (inflated === 'too large') throw new Refused('file exceeds the size limit');
   let raw: string;
   try {
     const mammoth = (await import('mammoth')).default;
@@ -289,7 +285,7 @@ export async function extractSniffed(
       case 'pdf':
         return extractPdf(filePath, (c) => (cancel = c));
       case 'docx':
-        return extractDocx(filePath, size, limits);
+        return extractDocx(filePath, limits);
       case 'email':
         return extractEmail(filePath, limits);
       case 'html':

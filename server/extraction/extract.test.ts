@@ -326,6 +326,20 @@ describe('extractFile: hostile and broken inputs', () => {
     });
   });
 
+  it('a small DOCX that inflates far beyond the size limit (a zip bomb in OOXML clothing) is refused', async () => {
+    const docx = await makeDocx({
+      title: 'T',
+      author: 'A',
+      paragraphs: ['lorem '.repeat(400_000)],
+    });
+    expect(docx.length).toBeLessThan(100 * 1024);
+    expect(await extractBytes(docx, 'bomb.docx', { maxFileBytes: 100 * 1024 })).toMatchObject({
+      ok: false,
+      kind: 'docx',
+      reason: 'file exceeds the size limit',
+    });
+  });
+
   it('an empty file is "empty file"', async () => {
     expect(await extractBytes(Buffer.alloc(0), 'empty.txt')).toMatchObject({
       ok: false,

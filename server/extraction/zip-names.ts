@@ -78,19 +78,22 @@ export function readZipEntry(
 }
 
 /**
- * Inflates every entry and discards the output, counting real bytes: true when the total
- * stays within `maxBytes`. Guards libraries that inflate a whole package in memory.
+ * Inflates every entry and discards the output, counting real bytes: 'within' when the total
+ * stays within `maxBytes`, 'too large' when it does not, 'corrupt' when an entry cannot be read. Guards libraries that inflate a whole package in memory.
  */
-export function inflatesWithin(filePath: string, maxBytes: number): Promise<boolean> {
+export function inflatesWithin(
+  filePath: string,
+  maxBytes: number,
+): Promise<'within' | 'too large' | 'corrupt'> {
   return new Promise((resolve) => {
     yauzl.open(
       filePath,
       { lazyEntries: true, autoClose: true, validateEntrySizes: true },
       (error, zip) => {
-        if (error || !zip) return resolve(false);
+        if (error || !zip) return resolve('corrupt');
         let total = 0;
         let settled = false;
-        const finish = (value: boolean) => {
+        const finish = (value: 'within' | 'too large' | 'corrupt') => {
           if (settled) return;
           settled = true;
           zip.close();
@@ -99,20 +102,20 @@ export function inflatesWithin(filePath: string, maxBytes: number): Promise<bool
         zip.on('entry', (entry: yauzl.Entry) => {
           if (entry.fileName.endsWith('/')) return zip.readEntry();
           zip.openReadStream(entry, (streamError, stream) => {
-            if (streamError || !stream) return finish(false);
+            if (streamError || !stream) return finish('corrupt');
             stream.on('data', (chunk: Buffer) => {
               total += chunk.length;
               if (total > maxBytes) {
                 stream.destroy();
-                finish(false);
+                finish('too large');
               }
             });
             stream.on('end', () => zip.readEntry());
-            stream.on('error', () => finish(false));
+            stream.on('error', () => finish('corrupt'));
           });
         });
-        zip.on('end', () => finish(true));
-        zip.on('error', () => finish(false));
+        zip.on('end', () => finish('within'));
+        zip.on('error', () => finish('corrupt'));
         zip.readEntry();
       },
     );

@@ -4,7 +4,7 @@
 // a half-written blob and an existing blob is never overwritten.
 import { createHash, randomUUID } from 'node:crypto';
 import { createReadStream, createWriteStream, type ReadStream } from 'node:fs';
-import { link, mkdir, open, rm, stat, unlink } from 'node:fs/promises';
+import { link, mkdir, open, rename, rm, stat, unlink } from 'node:fs/promises';
 import path from 'node:path';
 import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
@@ -91,8 +91,13 @@ export class BlobStore {
         // link() fails with EEXIST instead of replacing: an existing blob is never overwritten.
         await link(temp, final);
       } catch (error) {
-        if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
-        created = false;
+        const code = (error as NodeJS.ErrnoException).code;
+        if (code === 'EEXIST') created = false;
+        else if (code === 'EPERM' || code === 'ENOTSUP' || code === 'ENOSYS') {
+          // Filesystems without hard links: rename, having checked the name is still free.
+          if (await this.has(sha256)) created = false;
+          else await rename(temp, final);
+        } else throw error;
       }
       return { sha256, size, path: final, created };
     } finally {
