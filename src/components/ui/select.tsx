@@ -1,6 +1,6 @@
 import { type SelectHTMLAttributes, forwardRef, useId } from 'react';
 import { cn } from '../../lib/cn';
-import { inputClass } from './text-field';
+import { inputBase, inputSize } from './text-field';
 
 export interface SelectOption {
   value: string;
@@ -12,10 +12,16 @@ export interface SelectProps extends SelectHTMLAttributes<HTMLSelectElement> {
   label?: string;
   options: readonly SelectOption[];
   error?: string | null;
+  /** A shorter control for table rows and toolbars. */
+  compact?: boolean;
 }
 
+// A quiet chevron drawn in the ink-muted colour, so the native menu keeps its keyboard behaviour.
+const chevron =
+  "bg-[url(\"data:image/svg+xml,%3Csvg xmlns='http://www.w3.org/2000/svg' width='10' height='6' viewBox='0 0 10 6'%3E%3Cpath d='M1 1l4 4 4-4' fill='none' stroke='%23545b63' stroke-width='1.5'/%3E%3C/svg%3E\")] bg-[length:10px_6px] bg-[position:right_0.6rem_center] bg-no-repeat appearance-none";
+
 export const Select = forwardRef<HTMLSelectElement, SelectProps>(function Select(
-  { label, options, error, className, id, ...rest },
+  { label, options, error, compact = false, className, id, ...rest },
   ref,
 ) {
   const generated = useId();
@@ -33,7 +39,11 @@ export const Select = forwardRef<HTMLSelectElement, SelectProps>(function Select
         id={selectId}
         aria-invalid={error ? true : undefined}
         aria-describedby={errorId}
-        className={cn(inputClass, 'pr-8')}
+        className={cn(
+          inputBase,
+          chevron,
+          compact ? 'h-7 pr-7 pl-2 text-[13px]' : `${inputSize} pr-7`,
+        )}
         {...rest}
       >
         {options.map((option) => (

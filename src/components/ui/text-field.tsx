@@ -1,9 +1,12 @@
 import { type InputHTMLAttributes, forwardRef, useId } from 'react';
 import { cn } from '../../lib/cn';
 
-export const inputClass =
-  'block w-full rounded-md border border-line-strong bg-panel px-2.5 h-9 text-sm text-ink placeholder:text-ink-faint ' +
+/** Shared look of inputs and selects; sizes are separate so they never conflict. */
+export const inputBase =
+  'block w-full rounded-md border border-line-strong bg-panel text-ink placeholder:text-ink-faint ' +
   'aria-[invalid=true]:border-danger disabled:bg-sunk disabled:text-ink-muted';
+export const inputSize = 'h-9 px-2.5 text-sm';
+export const inputClass = `${inputBase} ${inputSize}`;
 
 export interface TextFieldProps extends InputHTMLAttributes<HTMLInputElement> {
   label: string;

@@ -7,7 +7,6 @@ import {
   Badge,
   Button,
   Dialog,
-  EmptyState,
   Notice,
   PageHeader,
   QueryBoundary,
@@ -205,7 +204,8 @@ function MembersSection({ matterId }: { matterId: number }) {
                               role: event.target.value as MatterRole,
                             })
                           }
-                          className="[&_select]:h-7 [&_select]:text-[13px]"
+                          compact
+                          className="w-40"
                         />
                       ) : (
                         <Badge tone={member.role === 'lead' ? 'accent' : 'neutral'}>
@@ -292,7 +292,10 @@ function InvitationsSection({ matterId }: { matterId: number }) {
       <QueryBoundary query={invitations} errorTitle="Invitations could not be loaded">
         {({ invitations: list }) =>
           list.length === 0 ? (
-            <EmptyState title="No pending invitations" />
+            <p className="rounded-md border border-dashed border-line-strong px-4 py-3 text-sm text-ink-muted">
+              No pending invitations. Invitations appear here until they are accepted, revoked or
+              expire.
+            </p>
           ) : (
             <Table caption="Invitations not yet accepted" data-testid="invitations-table">
               <THead>
