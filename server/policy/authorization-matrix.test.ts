@@ -52,14 +52,41 @@ beforeAll(async () => {
   users['firm-admin'] = await t.buildUser({ isAdmin: true });
   // A second matter where the outsider is a lead: membership elsewhere must not leak in.
   await t.buildMatter({ lead: users['non-member'] });
+  // Routes addressed by another id (GET /api/jobs/:jobId) take their matter from it.
+  const job = await t.ctx.db
+    .insertInto('jobs')
+    .values({
+      matter_id: matter.id,
+      kind: 'matrix-probe',
+      status: 'succeeded',
+      created_at: new Date().toISOString(),
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  targets = { matterId: matter.id, jobId: job.id };
 });
+
+interface Targets {
+  matterId: number;
+  jobId: number;
+}
+let targets: Targets;
+const MISSING: Targets = { matterId: 987654, jobId: 987654 };
+
+/** The 404 a non-member gets: "Matter not found." or, for { via: 'job' } rules, "Job not found.". */
+function hiddenMessage(access: Access): string {
+  const via =
+    typeof access === 'object' && 'matter' in access ? (access as { via?: string }).via : undefined;
+  return via ? `${via[0].toUpperCase()}${via.slice(1)} not found.` : MATTER_NOT_FOUND_MESSAGE;
+}
 
 afterAll(() => t?.close());
 
-/** Fills path parameters: the test matter for :matterId, harmless unknown values otherwise. */
-function urlFor(spec: AnyRouteSpec, matterId: number): string {
+/** Fills path parameters: the test matter (and its job) for the scope ids, harmless unknown values otherwise. */
+function urlFor(spec: AnyRouteSpec, ids: Targets): string {
   const path = spec.path.replace(/:(\w+)/g, (_m, name: string) => {
-    if (name === 'matterId') return String(matterId);
+    if (name === 'matterId') return String(ids.matterId);
+    if (name === 'jobId') return String(ids.jobId);
     if (name === 'token') return randomBytes(32).toString('base64url');
     if (name === 'userId') return 'no-such-user';
     return '999999';
@@ -67,10 +94,10 @@ function urlFor(spec: AnyRouteSpec, matterId: number): string {
   return `/api${path}`;
 }
 
-async function callAs(caller: Caller, spec: AnyRouteSpec, matterId = matter.id) {
+async function callAs(caller: Caller, spec: AnyRouteSpec, ids: Targets = targets) {
   // A fresh session per request: some allowed calls (sign-out, password) end sessions.
   const agent: Agent = caller === 'anonymous' ? t.agent() : await t.agentFor(users[caller]);
-  const url = urlFor(spec, matterId);
+  const url = urlFor(spec, ids);
   const request = agent[spec.method](url);
   return spec.method === 'get' ? request : request.send({});
 }
@@ -100,10 +127,11 @@ describe('route inventory', () => {
     }
   });
 
-  test('matter-scoped rules sit on paths with :matterId', () => {
+  test('matter-scoped rules sit on paths with the id they are scoped by', () => {
     for (const spec of apiRoutes) {
-      if (typeof spec.access === 'object' && 'matter' in spec.access)
-        expect(spec.path).toMatch(/:matterId(\/|$)/);
+      if (typeof spec.access !== 'object' || !('matter' in spec.access)) continue;
+      const via = (spec.access as { via?: string }).via ?? 'matter';
+      expect(spec.path, `${spec.method} ${spec.path}`).toMatch(new RegExp(`:${via}Id(/|$)`));
     }
   });
 });
@@ -177,14 +205,14 @@ describe.each(
       expect([401, 403], detail).not.toContain(response.status);
       expect(response.status, detail).toBeLessThan(500);
       expect(
-        response.status === 404 && response.body?.error?.message === MATTER_NOT_FOUND_MESSAGE,
+        response.status === 404 && response.body?.error?.message === hiddenMessage(spec.access),
         detail,
       ).toBe(false);
     } else if (expected === 404) {
       expect(response.status, detail).toBe(404);
       expect(response.body.error, detail).toEqual({
         code: 'not_found',
-        message: MATTER_NOT_FOUND_MESSAGE,
+        message: hiddenMessage(spec.access),
       });
     } else {
       expect(response.status, detail).toBe(expected);
@@ -203,9 +231,9 @@ describe('a non-member cannot tell a hidden matter from a missing one', () => {
     matterRoutes.map((spec) => [`${spec.method.toUpperCase()} ${spec.path}`, spec] as const),
   )('%s', async (_name, spec) => {
     const hidden = await callAs('non-member', spec);
-    const missing = await callAs('lead', spec, 987654);
+    const missing = await callAs('lead', spec, MISSING);
     const leadAgent = await t.agentFor(users.lead);
-    const malformedUrl = urlFor(spec, matter.id).replace(`/${matter.id}`, '/abc');
+    const malformedUrl = urlFor(spec, { matterId: -1, jobId: -1 }).replace('/-1', '/abc');
     const malformed = await leadAgent[spec.method](malformedUrl).send({});
     expect(missing.status).toBe(404);
     expect(hidden.body).toEqual(missing.body);
