@@ -19,7 +19,7 @@ import {
   retryDocument,
   sendOriginal,
 } from './service';
-import { incomingFilesOf, uploadMiddleware } from './upload';
+import { incomingFilesOf, removeUploadDir, uploadMiddleware } from './upload';
 
 const actorOf = (user: { id: string; email: string }, ip: string | null) => ({
   id: user.id,
@@ -36,13 +36,18 @@ export const documentRoutes = [
     status: 201,
     summary: 'Upload files (multipart, field "files"; optional "custodian") as one batch',
     middleware: uploadMiddleware,
-    handler: ({ ctx, req, matter, body, user, ip }): Promise<UploadBatchResponse> =>
-      loadFiles(ctx, incomingFilesOf((req.files as Express.Multer.File[]) ?? []), {
-        matterId: matter.matterId,
-        custodianName: body.custodian ?? null,
-        source: 'upload',
-        actor: actorOf(user, ip),
-      }),
+    handler: async ({ ctx, req, matter, body, user, ip }): Promise<UploadBatchResponse> => {
+      try {
+        return await loadFiles(ctx, incomingFilesOf((req.files as Express.Multer.File[]) ?? []), {
+          matterId: matter.matterId,
+          custodianName: body.custodian ?? null,
+          source: 'upload',
+          actor: actorOf(user, ip),
+        });
+      } finally {
+        await removeUploadDir(ctx, req);
+      }
+    },
   }),
   defineRoute({
     method: 'get',

@@ -1,6 +1,6 @@
 // multipart/form-data uploads (RFC 7578) streamed by multer to a per-request temporary
 // folder under <dataDir>/tmp; the folder is removed when the response is done.
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import type { AppContext } from '../context';
 import { safeEntryPath } from '../extraction/archive';
@@ -52,13 +52,15 @@ function describeMulterError(ctx: AppContext, error: multer.MulterError): Error 
 export function uploadMiddleware(ctx: AppContext): RequestHandler[] {
   const { upload } = ctx.config;
   const storage = multer.diskStorage({
+    // One folder per request, made once even when parts arrive before it exists.
     destination: (req, _file, callback) => {
-      if (req.uploadDir) return callback(null, req.uploadDir);
-      makeTempDir(ctx.config.dataDir, 'upload').then(
-        (dir) => {
-          req.uploadDir = dir;
-          callback(null, dir);
-        },
+      const holder = req as unknown as { uploadDirMade?: Promise<string> };
+      holder.uploadDirMade ??= makeTempDir(ctx.config.dataDir, 'upload').then((dir) => {
+        req.uploadDir = dir;
+        return dir;
+      });
+      holder.uploadDirMade.then(
+        (dir) => callback(null, dir),
         (error: Error) => callback(error, ''),
       );
     },
@@ -128,6 +130,14 @@ export function uploadMiddleware(ctx: AppContext): RequestHandler[] {
     });
   };
   return [cleanup, checkLength, run];
+}
+
+/** Removes the request's temporary folder (the blobs are stored by now). */
+export async function removeUploadDir(ctx: AppContext, req: Request): Promise<void> {
+  const dir = req.uploadDir;
+  if (!dir) return;
+  req.uploadDir = undefined;
+  await removeTempDir(ctx.config.dataDir, dir).catch(() => undefined);
 }
 
 /** The uploaded files in the order they were sent. */
