@@ -194,6 +194,63 @@ describeBrowser('documents: a paralegal uploads files and finds them in the list
       await expect
         .poll(() => p.getByTestId('document-text').innerText(), { timeout: 15_000 })
         .toContain(FILES.eml.phrase);
+      await p.screenshot({ path: join(ARTIFACTS_DIR, 'document-page.png'), fullPage: true });
+    },
+  );
+
+  it(
+    'a broken file reads "Failed" with its reason, and a paralegal can remove it',
+    { timeout: 120_000 },
+    async () => {
+      // Runs after the first test: same server, same signed-in paralegal, custodian exists.
+      const p = page!;
+      screenshotOnFailure(() => page, 'documents-failed');
+      const matterId = quarry.seeded.matterId;
+      // A PDF cut short: the %PDF- header but no cross-reference table or trailer
+      // (ISO 32000-1 §7.5), which the extraction tests call "not a valid PDF".
+      const whole = await makePdf({ title: 'Cut short', author: 'Nobody', pages: ['Gone.'] });
+      const broken = join(fixtureDir, 'truncated-invoice.pdf');
+      writeFileSync(broken, whole.subarray(0, 200));
+
+      await p.goto(`${quarry.baseUrl}/matters/${matterId}/upload`);
+      await p.getByTestId('upload-page').waitFor();
+      await p.getByTestId('file-input').setInputFiles([broken]);
+      // Choose the existing custodian this time.
+      const select = p.getByTestId('custodian-select');
+      const option = select.locator('option', { hasText: CUSTODIAN });
+      await select.selectOption((await option.getAttribute('value'))!);
+      await p.getByTestId('upload-start').click();
+
+      const result = p.getByTestId('upload-result');
+      await expect
+        .poll(() => result.getAttribute('data-status'), { timeout: 60_000 })
+        .toBe('failed');
+      expect(await p.getByTestId('upload-row').getByTestId('failure-reason').innerText()).toBe(
+        'not a valid PDF',
+      );
+      const control = (await result.getAttribute('data-control-number'))!;
+
+      // The list filtered to failed files shows it with Retry and Remove.
+      await p.goto(`${quarry.baseUrl}/matters/${matterId}/documents?status=failed`);
+      const row = p.locator(`[data-testid="document-row"][data-control-number="${control}"]`);
+      await row.waitFor();
+      expect(await row.innerText()).toContain('not a valid PDF');
+      expect(await p.getByTestId('document-row').count()).toBe(1);
+      await row.getByTestId('retry-document').waitFor();
+      await p.screenshot({ path: join(ARTIFACTS_DIR, 'document-list-failed.png'), fullPage: true });
+
+      await row.getByTestId('remove-document').click();
+      await p.getByTestId('confirm-remove').click();
+      await expect.poll(() => row.count(), { timeout: 15_000 }).toBe(0);
+      const status = await p.evaluate(
+        async ([id, number]) => {
+          const res = await fetch(`/api/matters/${id}/documents?pageSize=500`);
+          const body = (await res.json()) as { documents: { controlNumber: string }[] };
+          return body.documents.some((d) => d.controlNumber === number);
+        },
+        [matterId, control] as const,
+      );
+      expect(status).toBe(false);
     },
   );
 });

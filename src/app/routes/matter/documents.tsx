@@ -214,7 +214,7 @@ function DocumentsPage({ matterId }: { matterId: number }) {
             />
           )}
         </div>
-        <div className="2xl:self-start">
+        <div className="max-w-2xl 2xl:max-w-none 2xl:self-start">
           <IndexStatusPanel matterId={matterId} />
         </div>
       </div>

@@ -41,7 +41,7 @@ const features = tableFeatures({
 
 const helper = createColumnHelper<typeof features, DocumentListItem>();
 
-const columns = helper.columns([
+const dataColumns = helper.columns([
   helper.accessor('controlNumber', {
     header: 'Control no.',
     sortFn: 'alphanumeric',
@@ -62,18 +62,25 @@ const columns = helper.columns([
   helper.accessor('size', { header: 'Size', sortFn: 'basic' }),
   helper.accessor('status', { header: 'Status', sortFn: 'text' }),
   helper.accessor('indexState', { header: 'Index', sortFn: 'text' }),
-  helper.display({ id: 'actions', header: 'Actions', enableSorting: false }),
 ]);
 
+// The actions column appears only when the page holds a failed file the role may act on.
+const columnsWithActions = [
+  ...dataColumns,
+  helper.display({ id: 'actions', header: 'Actions', enableSorting: false }),
+];
+
+// A fixed layout: every column but the title has a set width and the title takes the rest.
 const headerClass: Record<string, string> = {
-  controlNumber: 'w-32',
-  custodian: 'w-40',
-  docType: 'w-24',
-  date: 'w-28',
-  size: 'w-20 text-right',
-  status: 'w-64',
-  indexState: 'w-36',
-  actions: 'w-36 text-right',
+  controlNumber: 'w-[7.5rem]',
+  title: 'min-w-[14rem]',
+  custodian: 'w-[9rem]',
+  docType: 'w-[5.5rem]',
+  date: 'w-[6.5rem]',
+  size: 'w-[5rem] text-right',
+  status: 'w-[13rem]',
+  indexState: 'w-[8rem]',
+  actions: 'w-[9rem] text-right',
 };
 
 export function DocumentTable({
@@ -98,9 +105,10 @@ export function DocumentTable({
   const retry = useRetryDocument(matterId);
   const remove = useDeleteDocument(matterId);
 
+  const showActions = canOrganise && rows.some((row) => row.status === 'failed');
   const table = useTable({
     features,
-    columns,
+    columns: showActions ? columnsWithActions : dataColumns,
     data: rows,
     rowCount: total,
     manualPagination: true,
@@ -122,7 +130,10 @@ export function DocumentTable({
         </Notice>
       ) : null}
       <div className="overflow-x-auto rounded-md border border-line bg-panel">
-        <table className="w-full border-collapse text-[13px]" data-testid="document-table">
+        <table
+          className="w-full min-w-[62rem] table-fixed border-collapse text-[13px]"
+          data-testid="document-table"
+        >
           <caption className="sr-only">{caption}</caption>
           <thead className="bg-sunk/70 text-left">
             {table.getHeaderGroups().map((group) => (
@@ -188,7 +199,7 @@ export function DocumentTable({
                       {doc.controlNumber}
                     </Link>
                   </td>
-                  <td className="max-w-0 px-2.5 py-1">
+                  <td className="px-2.5 py-1">
                     <span className="block truncate" title={doc.path}>
                       {doc.parentId ? (
                         <span className="mr-1 text-ink-faint" aria-label="Attachment:">
@@ -198,7 +209,7 @@ export function DocumentTable({
                       {doc.title}
                     </span>
                   </td>
-                  <td className="truncate px-2.5 py-1 text-ink-muted">
+                  <td className="truncate px-2.5 py-1 text-ink-muted" title={doc.custodian?.name}>
                     {doc.custodian?.name ?? '—'}
                   </td>
                   <td className="px-2.5 py-1 whitespace-nowrap">{docTypeLabel(doc.docType)}</td>
@@ -222,35 +233,37 @@ export function DocumentTable({
                   <td className="px-2.5 py-1">
                     <IndexStateBadge state={doc.indexState} />
                   </td>
-                  <td className="px-2.5 py-1 text-right whitespace-nowrap">
-                    {canOrganise && doc.status === 'failed' ? (
-                      <span
-                        className="inline-flex gap-1"
-                        onClick={(event) => event.stopPropagation()}
-                      >
-                        <Button
-                          size="sm"
-                          variant="quiet"
-                          busy={retry.isPending && retry.variables === doc.id}
-                          onClick={() => retry.mutate(doc.id)}
-                          aria-label={`Retry ${doc.controlNumber}`}
-                          data-testid="retry-document"
+                  {showActions ? (
+                    <td className="px-2.5 py-1 text-right whitespace-nowrap">
+                      {doc.status === 'failed' ? (
+                        <span
+                          className="inline-flex gap-1"
+                          onClick={(event) => event.stopPropagation()}
                         >
-                          Retry
-                        </Button>
-                        <Button
-                          size="sm"
-                          variant="quiet"
-                          className="text-danger hover:bg-danger-soft"
-                          onClick={() => setRemoving(doc)}
-                          aria-label={`Remove ${doc.controlNumber}`}
-                          data-testid="remove-document"
-                        >
-                          Remove
-                        </Button>
-                      </span>
-                    ) : null}
-                  </td>
+                          <Button
+                            size="sm"
+                            variant="quiet"
+                            busy={retry.isPending && retry.variables === doc.id}
+                            onClick={() => retry.mutate(doc.id)}
+                            aria-label={`Retry ${doc.controlNumber}`}
+                            data-testid="retry-document"
+                          >
+                            Retry
+                          </Button>
+                          <Button
+                            size="sm"
+                            variant="quiet"
+                            className="text-danger hover:bg-danger-soft"
+                            onClick={() => setRemoving(doc)}
+                            aria-label={`Remove ${doc.controlNumber}`}
+                            data-testid="remove-document"
+                          >
+                            Remove
+                          </Button>
+                        </span>
+                      ) : null}
+                    </td>
+                  ) : null}
                 </tr>
               );
             })}

@@ -116,7 +116,9 @@ export function UploadPanel({ matterId }: { matterId: number }) {
             >
               {queue.running
                 ? 'Uploading…'
-                : `Upload ${readyCount || ''} ${readyCount === 1 ? 'file' : 'files'}`}
+                : readyCount === 0
+                  ? 'Upload'
+                  : `Upload ${readyCount} ${readyCount === 1 ? 'file' : 'files'}`}
             </Button>
             {queue.running ? (
               <Button onClick={queue.cancel} data-testid="upload-cancel">

@@ -1,7 +1,10 @@
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useRef } from 'react';
 import type { IndexStateResponse } from '../../../../shared/schemas/indexing';
 import { Button, ErrorPanel, Notice, SkeletonRows, describeError } from '../../../components/ui';
 import { Can } from '../../../lib/authorization';
 import { formatDateTime } from '../../../lib/format';
+import { documentsQueryKey } from '../../documents/api/get-documents';
 import { isJobActive } from '../../jobs/api/get-matter-jobs';
 import { JobProgress } from '../../jobs/components/job-progress';
 import { useIndexState } from '../api/get-index-state';
@@ -16,6 +19,7 @@ const numberFormat = new Intl.NumberFormat();
  */
 export function IndexStatusPanel({ matterId }: { matterId: number }) {
   const state = useIndexState(matterId);
+  useRefreshDocumentsWhenSettled(matterId, state.data);
   return (
     <section
       aria-labelledby="index-status-heading"
@@ -157,4 +161,22 @@ function IndexStatusBody({ matterId, data }: { matterId: number; data: IndexStat
       </Can>
     </div>
   );
+}
+
+/**
+ * When a build or an extraction finishes, every listed document's index state may have
+ * changed (waiting to indexed or folded in): refetch the document queries once.
+ */
+function useRefreshDocumentsWhenSettled(matterId: number, data: IndexStateResponse | undefined) {
+  const queryClient = useQueryClient();
+  const wasActive = useRef(false);
+  const active = Boolean(
+    data && ((data.activeJob && isJobActive(data.activeJob)) || data.building != null),
+  );
+  useEffect(() => {
+    if (wasActive.current && !active) {
+      void queryClient.invalidateQueries({ queryKey: documentsQueryKey(matterId) });
+    }
+    wasActive.current = active;
+  }, [active, matterId, queryClient]);
 }
