@@ -1,5 +1,34 @@
-import type { Kysely } from 'kysely';
+import { sql, type ExpressionBuilder, type Kysely } from 'kysely';
 import type { Database } from '../db/schema';
+
+type AuditEb = ExpressionBuilder<Database & { e: Database['audit_events'] }, 'e'>;
+
+/**
+ * A matter's log: its own events, plus the account events (sign-in, failed sign-in,
+ * sign-out, password change) of the people who are or were its members, so the lead
+ * sees who signed in. Former members are those a member.* event or an accepted
+ * invitation of this matter names.
+ */
+function inMatterScope(eb: AuditEb, matterId: number) {
+  return eb.or([
+    eb('e.matter_id', '=', matterId),
+    eb.and([
+      eb('e.matter_id', 'is', null),
+      eb('e.action', 'like', 'auth.%'),
+      eb(
+        'e.actor_id',
+        'in',
+        sql<string>`(
+          SELECT user_id FROM matter_members WHERE matter_id = ${matterId}
+          UNION SELECT target_id FROM audit_events
+            WHERE matter_id = ${matterId} AND target_type = 'user' AND action LIKE 'member.%'
+          UNION SELECT actor_id FROM audit_events
+            WHERE matter_id = ${matterId} AND action = 'invitation.accepted'
+        )`,
+      ),
+    ]),
+  ]);
+}
 
 export interface AuditFilter {
   matterId: number;
@@ -26,7 +55,7 @@ export function listAuditEvents(db: Kysely<Database>, filter: AuditFilter) {
       'e.detail',
       'e.ip',
     ])
-    .where('e.matter_id', '=', filter.matterId);
+    .where((eb) => inMatterScope(eb, filter.matterId));
   if (filter.actorId) query = query.where('e.actor_id', '=', filter.actorId);
   if (filter.action) query = query.where('e.action', '=', filter.action);
   if (filter.beforeId) query = query.where('e.id', '<', filter.beforeId);
@@ -39,7 +68,7 @@ export function listAuditActors(db: Kysely<Database>, matterId: number) {
     .leftJoin('users as u', 'u.id', 'e.actor_id')
     .select(['e.actor_id', 'u.name', 'u.email as current_email'])
     .select((eb) => eb.fn.max('e.actor_email').as('actor_email'))
-    .where('e.matter_id', '=', matterId)
+    .where((eb) => inMatterScope(eb, matterId))
     .where('e.actor_id', 'is not', null)
     .groupBy(['e.actor_id', 'u.name', 'u.email'])
     .orderBy('u.name')

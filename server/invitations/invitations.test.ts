@@ -166,8 +166,10 @@ describe('a new person accepts an invitation', () => {
     const response = await leadAgent.get(`/api/matters/${matter.id}/audit`);
     expect(response.status).toBe(200);
     const actions = response.body.events.map((e: { action: string }) => e.action);
-    expect(actions.slice(0, 3)).toEqual([
+    // The invitee's sign-in (a former member now) stays in the matter's log.
+    expect(actions.slice(0, 4)).toEqual([
       'member.revoked',
+      'auth.sign_in',
       'invitation.accepted',
       'invitation.sent',
     ]);

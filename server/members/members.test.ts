@@ -171,6 +171,30 @@ describe('audit log', () => {
     expect(badLimit.body.error.field).toBe('limit');
   });
 
+  test("members' sign-ins and failed sign-ins appear in the matter's log; other people's do not", async () => {
+    const own = await t.buildMatter();
+    const member = await t.buildUser();
+    const stranger = await t.buildUser();
+    await t.addMember(own, member, 'attorney');
+    await t.signIn(t.agent(), member.email, member.password);
+    await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: member.email, password: 'wrong password' });
+    await t.signIn(t.agent(), stranger.email, stranger.password);
+    const ownLead = await t.agentFor(own.lead);
+    const log = await ownLead.get(`/api/matters/${own.id}/audit`);
+    const auth = log.body.events.filter((e: { action: string }) => e.action.startsWith('auth.'));
+    expect(
+      auth.map((e: { action: string; actor: { id: string } }) => [e.action, e.actor.id]),
+    ).toEqual([
+      ['auth.sign_in_failed', member.id],
+      ['auth.sign_in', member.id],
+    ]);
+    const filtered = await ownLead.get(`/api/matters/${own.id}/audit?action=auth.sign_in_failed`);
+    expect(filtered.body.events).toHaveLength(1);
+  });
+
   test('the audit table is append-only', async () => {
     await expect(t.ctx.db.deleteFrom('audit_events').execute()).rejects.toThrow(/append-only/);
     await expect(
