@@ -1,12 +1,6 @@
 import { MutationCache, QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { type ReactNode, useState } from 'react';
-import { isApiError } from '../lib/api-client';
-
-/** Retrying a 4xx cannot help (the request itself is wrong or refused); retry others twice. */
-export function shouldRetry(failureCount: number, error: unknown): boolean {
-  if (isApiError(error) && error.isClientError) return false;
-  return failureCount < 2;
-}
+import { shouldRetry } from '../lib/query-retry';
 
 export function createQueryClient(): QueryClient {
   return new QueryClient({

@@ -23,6 +23,18 @@ export function isApiError(error: unknown): error is ApiError {
   return error instanceof ApiError;
 }
 
+/**
+ * The server's message for `field`, for display under that input: validation messages
+ * read "field: problem", and the label already names the field, so the prefix goes.
+ */
+export function fieldErrorOf(error: unknown, field: string): string | null {
+  if (!isApiError(error) || error.field !== field) return null;
+  const text = error.message.startsWith(`${field}: `)
+    ? error.message.slice(field.length + 2)
+    : error.message;
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
 export interface RequestOptions {

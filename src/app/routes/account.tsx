@@ -10,7 +10,7 @@ import {
 } from '../../components/ui';
 import { useChangePassword } from '../../features/auth/api/change-password';
 import { useMe } from '../../features/auth/api/get-me';
-import { isApiError } from '../../lib/api-client';
+import { fieldErrorOf, isApiError } from '../../lib/api-client';
 
 export function AccountRoute() {
   const me = useMe();
@@ -99,7 +99,7 @@ function ChangePasswordForm() {
           autoComplete="current-password"
           value={currentPassword}
           onChange={(event) => setCurrent(event.target.value)}
-          error={serverField === 'currentPassword' ? describeError(change.error) : null}
+          error={fieldErrorOf(change.error, 'currentPassword')}
         />
         <TextField
           label="New password"
@@ -110,7 +110,7 @@ function ChangePasswordForm() {
           maxLength={PASSWORD_MAX_LENGTH}
           value={newPassword}
           onChange={(event) => setNew(event.target.value)}
-          error={localError ?? (serverField === 'newPassword' ? describeError(change.error) : null)}
+          error={localError ?? fieldErrorOf(change.error, 'newPassword')}
         />
         <TextField
           label="Repeat the new password"

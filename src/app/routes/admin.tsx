@@ -34,7 +34,7 @@ import {
   useAdminMatters,
 } from '../../features/admin/api/get-admin-matters';
 import { useMe } from '../../features/auth/api/get-me';
-import { isApiError } from '../../lib/api-client';
+import { fieldErrorOf, isApiError } from '../../lib/api-client';
 import { formatDate } from '../../lib/format';
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
@@ -68,9 +68,7 @@ export function AdminRoute() {
   );
 }
 
-function fieldError(error: unknown, field: string): string | null {
-  return isApiError(error) && error.field === field ? error.message : null;
-}
+const fieldError = fieldErrorOf;
 
 function MattersSection() {
   const matters = useAdminMatters();
@@ -99,7 +97,9 @@ function MattersSection() {
                   <Th>Lead</Th>
                   <Th className="w-24">Members</Th>
                   <Th className="w-32">Opened</Th>
-                  <Th className="w-36 text-right">Lead</Th>
+                  <Th className="w-36 text-right">
+                    <span className="sr-only">Actions</span>
+                  </Th>
                 </tr>
               </THead>
               <TBody>

@@ -30,7 +30,7 @@ import {
 import { useInviteMember } from '../../../features/members/api/invite-member';
 import { useRevokeInvitation } from '../../../features/members/api/revoke-invitation';
 import { useRevokeMember } from '../../../features/members/api/revoke-member';
-import { isApiError } from '../../../lib/api-client';
+import { fieldErrorOf } from '../../../lib/api-client';
 import { Can, useMatterPermission } from '../../../lib/authorization';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { parseMatterId, useMatterId } from './layout';
@@ -91,10 +91,7 @@ function InviteForm({ matterId }: { matterId: number }) {
     );
   }
 
-  const fieldError =
-    invite.error && isApiError(invite.error) && invite.error.field === 'email'
-      ? invite.error.message
-      : null;
+  const fieldError = fieldErrorOf(invite.error, 'email');
   return (
     <section
       aria-labelledby="invite-heading"
