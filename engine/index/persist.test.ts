@@ -101,6 +101,33 @@ describe('persist: save and load a concept space', () => {
     expect(Array.from(loaded.docVector(loaded.indexOf(90)!))).toEqual(Array.from(folded[0].vector));
   });
 
+  it('keeps index_docs as the truth: a deleted document drops out, a re-folded one takes its row vector', async () => {
+    const docs = TEXTS.map((text, i) => ({ id: (i + 1) * 10, text }));
+    const { space, diagnostics } = ConceptSpace.build(docs, { k: 4 });
+    const indexId = await saveConceptSpace(db, space, diagnostics, { matterId: 1, version: 1 });
+    sqlite.prepare('DELETE FROM documents WHERE id = 30').run(); // cascades to index_docs
+    const [refolded] = space.foldInDocuments([{ id: 40, text: 'holiday party catering' }]);
+    await saveFoldedDocuments(db, indexId, [refolded]);
+    const loaded = await loadConceptSpace(db, indexId);
+    expect(loaded.nDocs).toBe(TEXTS.length - 1);
+    expect(loaded.indexOf(30)).toBeUndefined();
+    expect(loaded.isFoldedIn(loaded.indexOf(40)!)).toBe(true);
+    expect(Array.from(loaded.docVector(loaded.indexOf(40)!))).toEqual(Array.from(refolded.vector));
+    expect(Array.from(loaded.docVector(loaded.indexOf(50)!))).toEqual(
+      Array.from(space.docVector(space.indexOf(50)!)),
+    );
+  });
+
+  it('loads from the per-row tables alone when the BLOBs are absent', async () => {
+    const docs = TEXTS.map((text, i) => ({ id: (i + 1) * 10, text }));
+    const { space, diagnostics } = ConceptSpace.build(docs, { k: 4 });
+    const indexId = await saveConceptSpace(db, space, diagnostics, { matterId: 1, version: 1 });
+    const fast = await loadConceptSpace(db, indexId);
+    await db.deleteFrom('index_blobs').where('index_id', '=', indexId).execute();
+    const slow = await loadConceptSpace(db, indexId);
+    expect(slow.toData()).toEqual(fast.toData());
+  });
+
   it('refuses to load an index written in another format', async () => {
     const docs = TEXTS.map((text, i) => ({ id: (i + 1) * 10, text }));
     const { space, diagnostics } = ConceptSpace.build(docs, { k: 3 });

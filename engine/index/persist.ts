@@ -5,8 +5,15 @@
 // the condition number). params holds the analysis and weighting settings with a
 // format version, so an index written differently is refused, not misread.
 //
-// Loading never parses numbers row by row: each BLOB is copied byte-wise into one
-// preallocated Float32Array (a byte copy also sidesteps Buffer alignment).
+// Besides those rows, each matrix is also written as one BLOB in index_blobs
+// (migrations/2026_12_01_0100_index_blobs.ts): 'terms' (JSON array, UTF-8), 'df'
+// (Int32), 'global_weights' (Float64), 'term_vectors' (Float32, terms x k),
+// 'doc_ids' (Float64 document ids), 'doc_vectors' (Float32, docs x k). Loading reads
+// those few BLOBs, then only the (document_id, folded_in) pairs of index_docs, which
+// stay the truth for membership: a deleted document (rows cascade) drops out and a
+// folded-in one's vector comes from its row. Nothing is parsed number by number:
+// BLOBs are copied byte-wise into preallocated typed arrays (a byte copy also
+// sidesteps Buffer alignment).
 import type { Generated, Kysely } from 'kysely';
 import { ANALYZER_VERSION } from '../text/analyzer';
 import {
@@ -59,17 +66,48 @@ export interface IndexDocsTable {
   folded_in: Generated<number>;
 }
 
+/** migrations/2026_12_01_0100_index_blobs.ts: one BLOB per matrix, for fast loading. */
+export interface IndexBlobsTable {
+  index_id: number;
+  name: string;
+  data: Uint8Array;
+}
+
 export interface IndexTables {
   index_versions: IndexVersionsTable;
   index_terms: IndexTermsTable;
   index_docs: IndexDocsTable;
+  index_blobs: IndexBlobsTable;
 }
 
 export const INDEX_FORMAT_VERSION = 1;
 const BATCH_ROWS = 500;
 
-function blobOf(view: Float32Array | Float64Array): Buffer {
+function blobOf(view: Float32Array | Float64Array | Int32Array | Uint8Array): Buffer {
   return Buffer.from(view.buffer, view.byteOffset, view.byteLength);
+}
+
+/** A typed array holding a copy of the BLOB's bytes (alignment-safe). */
+function typedFrom<T extends Float32Array | Float64Array | Int32Array>(
+  Type: { new (length: number): T; BYTES_PER_ELEMENT: number },
+  blob: Uint8Array,
+  what: string,
+): T {
+  if (blob.byteLength % Type.BYTES_PER_ELEMENT !== 0) {
+    throw new Error(`${what}: BLOB of ${blob.byteLength} bytes is not whole values`);
+  }
+  const length = blob.byteLength / Type.BYTES_PER_ELEMENT;
+  // A large BLOB arrives in its own buffer: view it in place when aligned.
+  if (blob.byteOffset % Type.BYTES_PER_ELEMENT === 0 && blob.byteLength >= 65536) {
+    return new (Type as unknown as new (b: ArrayBufferLike, o: number, l: number) => T)(
+      blob.buffer,
+      blob.byteOffset,
+      length,
+    );
+  }
+  const out = new Type(length);
+  new Uint8Array(out.buffer).set(blob);
+  return out;
 }
 
 export function decodeSingularValues(blob: Uint8Array | null): Float64Array {
@@ -164,6 +202,7 @@ export async function saveConceptSpace(
         throw new RangeError(`index version ${indexId} does not exist`);
       await trx.deleteFrom('index_terms').where('index_id', '=', indexId).execute();
       await trx.deleteFrom('index_docs').where('index_id', '=', indexId).execute();
+      await trx.deleteFrom('index_blobs').where('index_id', '=', indexId).execute();
     } else {
       const row = await trx
         .insertInto('index_versions')
@@ -207,8 +246,34 @@ export async function saveConceptSpace(
       }
       await trx.insertInto('index_docs').values(rows).execute();
     }
+    const blobs: [string, Uint8Array][] = [
+      ['terms', Buffer.from(JSON.stringify(data.terms), 'utf8')],
+      ['df', blobOf(data.df)],
+      ['global_weights', blobOf(data.globalWeights)],
+      ['term_vectors', blobOf(data.termVectors)],
+      ...documentBlobs(documentIds, data.docVectors, k),
+    ];
+    for (const [name, blob] of blobs) {
+      await trx.insertInto('index_blobs').values({ index_id: indexId, name, data: blob }).execute();
+    }
     return indexId;
   });
+}
+
+/** doc_ids and doc_vectors BLOBs in ascending document id (the order loading uses). */
+function documentBlobs(
+  documentIds: number[],
+  vectors: Float32Array,
+  k: number,
+): [string, Uint8Array][] {
+  const order = documentIds.map((_, j) => j).sort((a, b) => documentIds[a] - documentIds[b]);
+  const ids = Float64Array.from(order, (j) => documentIds[j]);
+  const sorted = new Float32Array(order.length * k);
+  order.forEach((j, r) => sorted.set(vectors.subarray(j * k, (j + 1) * k), r * k));
+  return [
+    ['doc_ids', blobOf(ids)],
+    ['doc_vectors', blobOf(sorted)],
+  ];
 }
 
 /** Stores folded-in documents' vectors (insert or replace) under an index version. */
@@ -289,6 +354,45 @@ export async function loadConceptSpace(
   if (sigma.length !== k)
     throw new Error(`index version ${indexId}: ${sigma.length} singular values for k = ${k}`);
 
+  const blobRows = await db
+    .selectFrom('index_blobs')
+    .select(['name', 'data'])
+    .where('index_id', '=', indexId)
+    .execute();
+  const blobs = new Map(blobRows.map((r) => [r.name, r.data]));
+  const vocabulary = blobs.has('terms')
+    ? vocabularyFromBlobs(blobs, k, indexId)
+    : await vocabularyFromRows(db, indexId, k);
+  const docs = await documentsOf(db, indexId, k, blobs);
+  return new ConceptSpace({ params: { ...params, k }, sigma, ...vocabulary, ...docs });
+}
+
+function need(blobs: Map<string, Uint8Array>, name: string, indexId: number): Uint8Array {
+  const blob = blobs.get(name);
+  if (!blob) throw new Error(`index version ${indexId}: BLOB "${name}" is missing`);
+  return blob;
+}
+
+function vocabularyFromBlobs(blobs: Map<string, Uint8Array>, k: number, indexId: number) {
+  const terms = JSON.parse(Buffer.from(need(blobs, 'terms', indexId)).toString('utf8')) as string[];
+  const df = typedFrom(Int32Array, need(blobs, 'df', indexId), 'df');
+  const globalWeights = typedFrom(
+    Float64Array,
+    need(blobs, 'global_weights', indexId),
+    'global_weights',
+  );
+  const termVectors = typedFrom(Float32Array, need(blobs, 'term_vectors', indexId), 'term_vectors');
+  if (
+    df.length !== terms.length ||
+    globalWeights.length !== terms.length ||
+    termVectors.length !== terms.length * k
+  ) {
+    throw new Error(`index version ${indexId}: vocabulary BLOBs disagree in length`);
+  }
+  return { terms, df, globalWeights, termVectors };
+}
+
+async function vocabularyFromRows(db: Kysely<IndexTables>, indexId: number, k: number) {
   const termRows = await db
     .selectFrom('index_terms')
     .select(['term_id', 'term', 'df', 'global_weight', 'vector'])
@@ -308,31 +412,70 @@ export async function loadConceptSpace(
     globalWeights[i] = row.global_weight;
     copyInto(termVectors, i, k, row.vector, `term "${row.term}"`);
   });
+  return { terms, df, globalWeights, termVectors };
+}
 
-  const docRows = await db
+/**
+ * The documents of an index version: index_docs decides who is in (and folded in);
+ * vectors of built documents come from the doc_vectors BLOB when it has them, the
+ * rest (folded-in documents) from their rows.
+ */
+async function documentsOf(
+  db: Kysely<IndexTables>,
+  indexId: number,
+  k: number,
+  blobs: Map<string, Uint8Array>,
+) {
+  const members = await db
     .selectFrom('index_docs')
-    .select(['document_id', 'vector', 'folded_in'])
+    .select(['document_id', 'folded_in'])
     .where('index_id', '=', indexId)
     .orderBy('document_id')
     .execute();
-  const n = docRows.length;
+  const n = members.length;
+  const idsBlob = blobs.get('doc_ids');
+  const blobIds = idsBlob ? typedFrom(Float64Array, idsBlob, 'doc_ids') : null;
+  const blobVectors = blobIds
+    ? typedFrom(Float32Array, need(blobs, 'doc_vectors', indexId), 'doc_vectors')
+    : null;
+  if (blobIds && blobVectors && blobVectors.length !== blobIds.length * k) {
+    throw new Error(`index version ${indexId}: doc_vectors BLOB does not match doc_ids x k`);
+  }
+  const blobIndex = new Map<number, number>();
+  if (blobIds) blobIds.forEach((id, j) => blobIndex.set(id, j));
   const docIds: DocId[] = new Array(n);
-  const docVectors = new Float32Array(n * k);
   const foldedIn = new Uint8Array(n);
-  docRows.forEach((row, j) => {
+  // Fast path: the BLOB holds exactly the member documents, in document-id order.
+  if (
+    blobIds &&
+    blobVectors &&
+    blobIds.length === n &&
+    members.every((row, j) => !row.folded_in && blobIds[j] === row.document_id)
+  ) {
+    members.forEach((row, j) => (docIds[j] = row.document_id));
+    return { docIds, docVectors: blobVectors, foldedIn };
+  }
+  const docVectors = new Float32Array(n * k);
+  const fromRows = new Map<number, number>();
+  members.forEach((row, j) => {
     docIds[j] = row.document_id;
     foldedIn[j] = row.folded_in ? 1 : 0;
-    copyInto(docVectors, j, k, row.vector, `document ${row.document_id}`);
+    const b = row.folded_in ? undefined : blobIndex.get(row.document_id);
+    if (b !== undefined && blobVectors)
+      docVectors.set(blobVectors.subarray(b * k, (b + 1) * k), j * k);
+    else fromRows.set(row.document_id, j);
   });
-  return new ConceptSpace({
-    params: { ...params, k },
-    terms,
-    df,
-    globalWeights,
-    sigma,
-    termVectors,
-    docIds,
-    docVectors,
-    foldedIn,
-  });
+  if (fromRows.size > 0) {
+    const onlyFolded = [...fromRows.values()].every((j) => foldedIn[j] === 1);
+    let query = db
+      .selectFrom('index_docs')
+      .select(['document_id', 'vector'])
+      .where('index_id', '=', indexId);
+    if (onlyFolded) query = query.where('folded_in', '=', 1);
+    for (const row of await query.execute()) {
+      const j = fromRows.get(row.document_id);
+      if (j !== undefined) copyInto(docVectors, j, k, row.vector, `document ${row.document_id}`);
+    }
+  }
+  return { docIds, docVectors, foldedIn };
 }
