@@ -1,4 +1,4 @@
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -49,21 +49,30 @@ const queries = file(
 );
 const qrels = file('qrels.txt', '1 0 a 2\n1 0 d 1\n2 0 b 1\n2 0 c 2\n3 0 a 1\n');
 
-function quarry(...args: string[]) {
-  const run = spawnSync(process.execPath, ['--import', 'tsx', 'cli/quarry.ts', 'eval', ...args], {
-    cwd: process.cwd(),
-    encoding: 'utf8',
-    timeout: 60_000,
+function quarry(
+  ...args: string[]
+): Promise<{ status: number | null; stdout: string; stderr: string }> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/quarry.ts', 'eval', ...args], {
+      cwd: process.cwd(),
+      timeout: 60_000,
+    });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (chunk) => (stdout += chunk));
+    child.stderr.on('data', (chunk) => (stderr += chunk));
+    child.on('error', reject);
+    child.on('close', (status) => resolve({ status, stdout, stderr }));
   });
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
 }
 
 const base = ['--docs', docs, '--queries', queries, '--qrels', qrels];
 
-describe('quarry eval', () => {
+// Each case spawns a process; they run concurrently (2-3 at a time) to keep the file fast.
+describe.concurrent('quarry eval', () => {
   for (const mode of ['concept', 'keyword', 'hybrid']) {
-    it(`--mode ${mode} --json prints one object with the measures`, () => {
-      const run = quarry(...base, '--mode', mode, '--json');
+    it(`--mode ${mode} --json prints one object with the measures`, async () => {
+      const run = await quarry(...base, '--mode', mode, '--json');
       expect(run.status, run.stderr).toBe(0);
       const out = JSON.parse(run.stdout);
       expect(out).toMatchObject({ mode, queries: 3 });
@@ -80,8 +89,8 @@ describe('quarry eval', () => {
     });
   }
 
-  it('prints a readable table without --json', () => {
-    const run = quarry(...base, '--mode', 'concept', '--k', '2');
+  it('prints a readable table without --json', async () => {
+    const run = await quarry(...base, '--mode', 'concept', '--k', '2');
     expect(run.status, run.stderr).toBe(0);
     expect(run.stdout).toMatch(/MAP\s+\d\.\d{4}/);
     expect(run.stdout).toMatch(/nDCG@10/);
@@ -150,8 +159,8 @@ describe('quarry eval', () => {
     ],
   ];
   for (const [what, args, message] of bad) {
-    it(`refuses ${what} with one line and a non-zero exit`, () => {
-      const run = quarry(...args);
+    it(`refuses ${what} with one line and a non-zero exit`, async () => {
+      const run = await quarry(...args);
       expect(run.status).not.toBe(0);
       expect(run.stderr).toMatch(message);
       expect(run.stderr.trim().split('\n')).toHaveLength(1);
