@@ -57,11 +57,34 @@ export function describeBrowser(name: string, body: () => void): void {
   describe.skip(name, body);
 }
 
-/** Builds the client once when dist/ has none (the tests never rebuild a present one). */
+const sleep = (ms: number) => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ms);
+
+/**
+ * Builds the client once when dist/ has none (a present one is used as is: `npm test`
+ * builds before the tests). Test files run in parallel workers, so one worker builds
+ * under a lock folder and the others wait for dist/index.html.
+ */
 export function ensureClientBuilt(): void {
-  if (existsSync(join(DIST_DIR, 'index.html'))) return;
-  console.log('Browser tests: dist/index.html is missing, running `npx vite build` once...');
-  execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' });
+  const index = join(DIST_DIR, 'index.html');
+  if (existsSync(index)) return;
+  const lock = join(ROOT, 'tests/.artifacts/.client-build.lock');
+  mkdirSync(join(ROOT, 'tests/.artifacts'), { recursive: true });
+  try {
+    mkdirSync(lock);
+  } catch {
+    const deadline = Date.now() + 180_000;
+    while (!existsSync(index) && existsSync(lock) && Date.now() < deadline) sleep(250);
+    if (existsSync(index)) return;
+    throw new Error(
+      'Browser tests: waited for another worker to build dist/ and it did not finish.',
+    );
+  }
+  try {
+    console.log('Browser tests: dist/index.html is missing, running `npx vite build` once...');
+    execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' });
+  } finally {
+    rmSync(lock, { recursive: true, force: true });
+  }
 }
 
 export interface StartQuarryOptions {
@@ -129,12 +152,12 @@ export async function startQuarry(options: StartQuarryOptions = {}): Promise<Qua
 }
 
 export interface BrowserSession {
+  /** Pages opened here share cookies; launch a second browser for a second person at once. */
   context: BrowserContext;
-  /** A fresh context (no cookies) in the same browser, e.g. for a second person. */
   close(): Promise<void>;
 }
 
-/** Chromium with a fresh user-data folder, removed on close. */
+/** Chromium with a fresh user-data folder (so no state leaks between runs), removed on close. */
 export async function launchBrowser(): Promise<BrowserSession> {
   const userDataDir = mkdtempSync(join(tmpdir(), 'quarry-chromium-'));
   const context = await chromium.launchPersistentContext(userDataDir, {

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { Link, useLocation } from 'react-router';
+import { AppFooter } from './app-footer';
 import { Wordmark } from './wordmark';
 
 /** Pages reached without a session: sign-in, invitation, dev mailbox. */
@@ -30,6 +31,7 @@ export function PublicLayout({ children, wide = false }: { children: ReactNode; 
       >
         {children}
       </main>
+      <AppFooter />
     </div>
   );
 }
