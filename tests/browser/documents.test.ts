@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { makeDocx, makeEml, makePdf } from '../../corpus-demo/render';
+import { makeDocx, makeEml, makePdf, makeText, makeZip } from '../../corpus-demo/render';
 import {
   ARTIFACTS_DIR,
   type BrowserSession,
@@ -73,6 +73,8 @@ describeBrowser('documents: a paralegal uploads files and finds them in the list
   let page: Page | undefined;
   let fixtureDir: string;
   let fixturePaths: string[];
+  /** Control numbers the first test saw, by fixture kind. */
+  const controlNumbers: Record<string, string> = {};
 
   beforeAll(async () => {
     fixtureDir = mkdtempSync(join(tmpdir(), 'quarry-upload-fixtures-'));
@@ -147,7 +149,6 @@ describeBrowser('documents: a paralegal uploads files and finds them in the list
         )
         .toBe('extracted,extracted,extracted');
 
-      const controlNumbers: Record<string, string> = {};
       for (const [kind, file] of Object.entries(FILES)) {
         const row = p.locator(`[data-testid="upload-row"][data-file-name="${file.name}"]`);
         const control = await row.getByTestId('upload-result').getAttribute('data-control-number');
@@ -195,6 +196,48 @@ describeBrowser('documents: a paralegal uploads files and finds them in the list
         .poll(() => p.getByTestId('document-text').innerText(), { timeout: 15_000 })
         .toContain(FILES.eml.phrase);
       await p.screenshot({ path: join(ARTIFACTS_DIR, 'document-page.png'), fullPage: true });
+    },
+  );
+
+  it(
+    'a .zip is unpacked into one row per entry, and a copy is recorded as a duplicate',
+    { timeout: 120_000 },
+    async () => {
+      const p = page!;
+      screenshotOnFailure(() => page, 'documents-zip');
+      const matterId = quarry.seeded.matterId;
+      const { readFileSync } = await import('node:fs');
+      const zip = await makeZip([
+        { name: 'copies/flour-supply-schedule.pdf', content: readFileSync(fixturePaths[0]) },
+        {
+          name: 'notes/warehouse-log.txt',
+          content: makeText('Warehouse log: forty sacks of spelt moved to bay three on Tuesday.'),
+        },
+      ]);
+      const zipPath = join(fixtureDir, 'second-collection.zip');
+      writeFileSync(zipPath, zip);
+
+      await p.goto(`${quarry.baseUrl}/matters/${matterId}/upload`);
+      await p.getByTestId('upload-page').waitFor();
+      await p.getByTestId('file-input').setInputFiles([zipPath]);
+      const select = p.getByTestId('custodian-select');
+      const option = select.locator('option', { hasText: CUSTODIAN });
+      await select.selectOption((await option.getAttribute('value'))!);
+      await p.getByTestId('upload-start').click();
+
+      const row = p.locator('[data-testid="upload-row"][data-file-name="second-collection.zip"]');
+      await expect.poll(() => row.getAttribute('data-phase'), { timeout: 30_000 }).toBe('uploaded');
+      const entries = row.getByTestId('upload-result');
+      await expect.poll(() => entries.count()).toBe(2);
+      // SHA-256 content addressing: the PDF inside the zip is the first test's PDF again.
+      const statuses = async () =>
+        (await entries.evaluateAll((els) => els.map((el) => el.getAttribute('data-status'))))
+          .sort()
+          .join(',');
+      await expect.poll(statuses, { timeout: 60_000 }).toBe('duplicate,extracted');
+      const duplicate = entries.and(p.locator('[data-status="duplicate"]'));
+      expect(await duplicate.innerText()).toContain(controlNumbers.pdf);
+      await p.screenshot({ path: join(ARTIFACTS_DIR, 'upload-zip.png'), fullPage: true });
     },
   );
 

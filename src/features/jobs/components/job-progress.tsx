@@ -29,7 +29,7 @@ const STATUS_TONES = {
 function progressText(job: Job): string {
   if (job.total <= 0) return isJobActive(job) ? 'Starting…' : '';
   if (job.kind === 'build-index') return `${Math.round((job.progress / job.total) * 100)}%`;
-  return `${job.progress} of ${job.total} files`;
+  return `${job.progress} of ${job.total} ${job.total === 1 ? 'file' : 'files'}`;
 }
 
 /** One background job: what it is, where it stands, its message or its error. */
