@@ -8,10 +8,13 @@ import * as devMail from './routes/dev-mail';
 import * as invitation from './routes/invitation';
 import * as matterAccess from './routes/matter/access';
 import * as matterActivity from './routes/matter/activity';
+import * as matterCodes from './routes/matter/codes';
 import * as matterDocument from './routes/matter/documents-item';
 import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
+import * as matterReview from './routes/matter/review';
+import * as matterSearch from './routes/matter/search';
 import * as matterUpload from './routes/matter/upload';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
@@ -65,6 +68,21 @@ export function createAppRouter(queryClient: QueryClient) {
               path: 'documents/:docId',
               loader: matterDocument.clientLoader(queryClient),
               Component: matterDocument.DocumentRoute,
+            },
+            {
+              path: 'search',
+              loader: matterSearch.clientLoader(queryClient),
+              Component: matterSearch.SearchRoute,
+            },
+            {
+              path: 'review/:docId',
+              loader: matterReview.clientLoader(queryClient),
+              Component: matterReview.ReviewRoute,
+            },
+            {
+              path: 'codes',
+              loader: matterCodes.clientLoader(queryClient),
+              Component: matterCodes.CodesRoute,
             },
             {
               path: 'upload',

@@ -26,11 +26,25 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     summary: 'The matter at a glance and your role on it.',
   },
   {
+    id: 'search',
+    label: 'Search',
+    path: 'search',
+    permission: 'search.run',
+    summary: 'Concept, keyword and hybrid search; review, code and export the results.',
+  },
+  {
     id: 'documents',
     label: 'Documents',
     path: 'documents',
     permission: 'documents.read',
     summary: 'Every file loaded, its control number and status, and the concept index.',
+  },
+  {
+    id: 'codes',
+    label: 'Codes',
+    path: 'codes',
+    permission: 'documents.read',
+    summary: 'The code set reviewers apply and the viewer key for each; the lead edits it.',
   },
   {
     id: 'upload',

@@ -1,0 +1,127 @@
+import { type FormEvent, type KeyboardEvent, useEffect, useId, useState } from 'react';
+import { SEARCH_MODES, type SearchMode } from '../../../../shared/schemas/search';
+import { QUERY_MAX_LENGTH } from '../../../../shared/limits';
+import { Button } from '../../../components/ui';
+import { cn } from '../../../lib/cn';
+import { MODE_EXPLANATIONS, MODE_LABELS } from '../search-state';
+
+const isMac = typeof navigator !== 'undefined' && /Mac|iPhone|iPad/.test(navigator.platform);
+
+/** The query box (a word, a sentence or a pasted paragraph) and the mode switch. */
+export function QueryForm({
+  query,
+  mode,
+  busy,
+  onSubmit,
+}: {
+  query: string;
+  mode: SearchMode;
+  busy: boolean;
+  /** Runs the search; a mode change alone runs it too when there is a query. */
+  onSubmit: (query: string, mode: SearchMode) => void;
+}) {
+  const [draft, setDraft] = useState(query);
+  const [error, setError] = useState<string | null>(null);
+  const boxId = useId();
+  const modeName = useId();
+
+  // A saved search, a refinement or the back button changes the query from outside.
+  useEffect(() => setDraft(query), [query]);
+
+  function run(nextMode: SearchMode) {
+    const text = draft.trim();
+    if (!text) {
+      setError('Type a word, a sentence or a paragraph to search for.');
+      return;
+    }
+    if (text.length > QUERY_MAX_LENGTH) {
+      setError(`The query is ${text.length} characters; the most is ${QUERY_MAX_LENGTH}.`);
+      return;
+    }
+    setError(null);
+    onSubmit(text, nextMode);
+  }
+
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    run(mode);
+  }
+
+  function onKeyDown(event: KeyboardEvent<HTMLTextAreaElement>) {
+    if (event.key === 'Enter' && (event.ctrlKey || event.metaKey)) {
+      event.preventDefault();
+      run(mode);
+    }
+  }
+
+  return (
+    <form onSubmit={submit} className="space-y-3" role="search" aria-label="Search the matter">
+      <div className="space-y-1">
+        <label htmlFor={boxId} className="block text-[13px] font-medium text-ink">
+          Search for
+        </label>
+        <textarea
+          id={boxId}
+          value={draft}
+          onChange={(event) => setDraft(event.target.value)}
+          onKeyDown={onKeyDown}
+          rows={draft.length > 160 ? 5 : 2}
+          placeholder="A word, a sentence, or a paragraph pasted from a document"
+          aria-invalid={error ? true : undefined}
+          aria-describedby={`${boxId}-hint${error ? ` ${boxId}-error` : ''}`}
+          className="block w-full resize-y rounded-md border border-line-strong bg-panel px-3 py-2 font-document text-[15px] leading-snug text-ink placeholder:font-sans placeholder:text-sm placeholder:text-ink-faint aria-[invalid=true]:border-danger"
+          data-testid="search-query"
+        />
+        {error ? (
+          <p id={`${boxId}-error`} className="text-xs font-medium text-danger">
+            {error}
+          </p>
+        ) : null}
+      </div>
+      <div className="flex flex-wrap items-stretch gap-3">
+        <fieldset className="min-w-0 flex-1">
+          <legend className="mb-1 text-[13px] font-medium text-ink">Mode</legend>
+          <div className="grid gap-1.5 sm:grid-cols-3" data-testid="search-mode">
+            {SEARCH_MODES.map((value) => (
+              <label
+                key={value}
+                className={cn(
+                  'cursor-pointer rounded-md border px-2.5 py-1.5 text-xs leading-snug',
+                  value === mode
+                    ? 'border-accent bg-accent-soft text-ink ring-1 ring-accent'
+                    : 'border-line bg-panel text-ink-muted hover:border-line-strong',
+                )}
+              >
+                <span className="flex items-center gap-1.5 text-[13px] font-semibold text-ink">
+                  <input
+                    type="radio"
+                    name={modeName}
+                    value={value}
+                    checked={value === mode}
+                    onChange={() => (draft.trim() ? run(value) : onSubmit('', value))}
+                    className="accent-accent"
+                    data-testid={`mode-${value}`}
+                  />
+                  {MODE_LABELS[value]}
+                  {value === 'hybrid' ? (
+                    <span className="font-normal text-ink-faint">(default)</span>
+                  ) : null}
+                </span>
+                <span className="mt-0.5 block">{MODE_EXPLANATIONS[value]}</span>
+              </label>
+            ))}
+          </div>
+        </fieldset>
+        <div className="flex flex-col justify-end gap-1">
+          <Button type="submit" variant="primary" busy={busy} data-testid="search-run">
+            Search
+          </Button>
+          <span id={`${boxId}-hint`} className="text-center text-[11px] text-ink-faint">
+            <kbd className="font-mono">{isMac ? '⌘' : 'Ctrl'}</kbd>+
+            <kbd className="font-mono">Enter</kbd> runs it
+          </span>
+        </div>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,55 @@
+import { Link } from 'react-router';
+import { SEARCH_PAGE_DEFAULT } from '../../../../shared/schemas/search';
+import { Notice, SkeletonRows, describeError } from '../../../components/ui';
+import { formatDateTime } from '../../../lib/format';
+import { useRecentSearches } from '../api/get-recent-searches';
+import { MODE_LABELS, searchHref } from '../search-state';
+
+/** The signed-in person's last searches on this matter (from the audit log). */
+export function RecentSearchesPanel({ matterId }: { matterId: number }) {
+  const recent = useRecentSearches(matterId);
+  return (
+    <section
+      className="rounded-md border border-line bg-panel p-3"
+      aria-labelledby="recent-heading"
+      data-testid="recent-searches"
+    >
+      <h2 id="recent-heading" className="mb-2 text-sm font-semibold">
+        Your recent searches
+      </h2>
+      {recent.isPending ? (
+        <SkeletonRows rows={3} label="Loading recent searches" />
+      ) : recent.isError ? (
+        <Notice tone="danger" title="Recent searches could not be loaded">
+          {describeError(recent.error)}
+        </Notice>
+      ) : recent.data.searches.length === 0 ? (
+        <p className="text-xs text-ink-muted">Searches you run appear here.</p>
+      ) : (
+        <ul className="space-y-1.5 text-[13px]">
+          {recent.data.searches.map((item, index) => (
+            <li key={`${item.at}-${index}`}>
+              <Link
+                className="block truncate text-accent-strong hover:underline"
+                title={item.query || 'More like this'}
+                to={searchHref(matterId, {
+                  query: item.query,
+                  mode: item.mode,
+                  filters: item.filters,
+                  pageIndex: 0,
+                  pageSize: SEARCH_PAGE_DEFAULT,
+                  likeDocumentId: item.similarToDocumentId ?? undefined,
+                })}
+              >
+                {item.query ? `“${item.query}”` : 'More like this document'}
+              </Link>
+              <span className="text-[11px] text-ink-faint">
+                {MODE_LABELS[item.mode]} · {item.hits} hits · {formatDateTime(item.at)}
+              </span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
