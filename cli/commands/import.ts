@@ -1,34 +1,16 @@
 // `npm run quarry -- import --matter "<name>" [--custodian "<name>"] <folder>`: loads a
 // folder tree into a matter through the same service the upload route uses, then runs
 // extraction and indexing to completion, with a progress bar in the terminal.
-import { readdir, stat } from 'node:fs/promises';
+import { stat } from 'node:fs/promises';
 import path from 'node:path';
 import cliProgress from 'cli-progress';
 import { loadConfig } from '../../server/config';
 import { createContext } from '../../server/context';
 import { findMatterByName } from '../../server/documents/queries';
-import { loadFiles, type IncomingFile } from '../../server/documents/ingest';
+import { listFolder, loadFiles } from '../../server/documents/ingest';
 import { HttpError } from '../../server/http/errors';
 import { parseCommandArgs } from '../args';
 import { CliError } from '../cli-error';
-
-/** Every regular file under `root`, sorted by path (load order), "/"-separated. */
-export async function listFolder(root: string): Promise<IncomingFile[]> {
-  const out: IncomingFile[] = [];
-  async function walk(dir: string, prefix: string) {
-    const entries = (await readdir(dir, { withFileTypes: true })).sort((a, b) =>
-      a.name < b.name ? -1 : a.name > b.name ? 1 : 0,
-    );
-    for (const entry of entries) {
-      const full = path.join(dir, entry.name);
-      const relative = prefix ? `${prefix}/${entry.name}` : entry.name;
-      if (entry.isDirectory()) await walk(full, relative);
-      else if (entry.isFile()) out.push({ filePath: full, relativePath: relative });
-    }
-  }
-  await walk(root, '');
-  return out;
-}
 
 export async function run(argv: string[]): Promise<void> {
   const { values, positionals } = parseCommandArgs(

@@ -2,7 +2,7 @@
 // the demo seed. Archives are expanded safely, each file's type is decided by its content,
 // originals go once into the content-addressed blob store, and every file gets a control
 // number in load order in the same transaction that records it.
-import { readFile } from 'node:fs/promises';
+import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import type {
   CustodianRef,
@@ -338,4 +338,22 @@ export async function loadFiles(
   } finally {
     for (const dir of scratch) await removeTempDir(ctx.config.dataDir, dir).catch(() => undefined);
   }
+}
+
+/** Every regular file under `root`, sorted by path (load order), "/"-separated. */
+export async function listFolder(root: string): Promise<IncomingFile[]> {
+  const out: IncomingFile[] = [];
+  async function walk(dir: string, prefix: string) {
+    const entries = (await readdir(dir, { withFileTypes: true })).sort((a, b) =>
+      a.name < b.name ? -1 : a.name > b.name ? 1 : 0,
+    );
+    for (const entry of entries) {
+      const full = path.join(dir, entry.name);
+      const relative = prefix ? `${prefix}/${entry.name}` : entry.name;
+      if (entry.isDirectory()) await walk(full, relative);
+      else if (entry.isFile()) out.push({ filePath: full, relativePath: relative });
+    }
+  }
+  await walk(root, '');
+  return out;
 }

@@ -1,6 +1,7 @@
 import { MATTER as DEMO_MATTER } from '../../corpus-demo/scenario';
 import type { MatterRole } from '../../shared/roles';
 import type { AppContext } from '../context';
+import { loadDemoCorpus, seedCorpusEnabled } from '../documents/demo-corpus';
 import { createMatter } from '../matters/service';
 import { insertMember } from '../members/queries';
 import { countUsers } from '../users/queries';
@@ -40,7 +41,15 @@ export interface PostSeedStep {
  * Steps run, in order, after seedDemo created the accounts and the demo matter.
  * HOOK: the documents feature appends its "load the demo corpus (corpus-demo/)" step here.
  */
-export const postSeedSteps: PostSeedStep[] = [];
+export const postSeedSteps: PostSeedStep[] = [
+  {
+    name: 'load the demo corpus',
+    run: async (ctx, seeded) => {
+      if (!seedCorpusEnabled()) return;
+      await loadDemoCorpus(ctx, seeded.matterId, { id: null, email: 'seed' });
+    },
+  },
+];
 
 /**
  * Seeds the demo accounts and the demo matter when the database has no users;
