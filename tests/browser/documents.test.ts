@@ -177,6 +177,16 @@ describeBrowser('documents: a paralegal uploads files and finds them in the list
         expect(await row.getAttribute('data-status')).toBe('extracted');
       }
 
+      // Sorting (TanStack Table v9 row sorting): control number descending puts the
+      // e-mail, loaded last, first; the header says so to assistive technology.
+      await p.getByTestId('sort-controlNumber').click();
+      await p.getByTestId('sort-controlNumber').click();
+      const header = p.locator('th', { has: p.getByTestId('sort-controlNumber') });
+      expect(await header.getAttribute('aria-sort')).toBe('descending');
+      expect(
+        await table.getByTestId('document-row').first().getAttribute('data-control-number'),
+      ).toBe(controlNumbers.eml);
+
       // The custodian filter narrows the list to the new custodian's documents.
       const custodianFilter = p.getByTestId('filter-custodian');
       const option = custodianFilter.locator('option', { hasText: CUSTODIAN });

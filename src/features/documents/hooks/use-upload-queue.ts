@@ -1,5 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useCallback, useRef, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import type { UploadBatchResponse, UploadedFile } from '../../../../shared/schemas/documents';
 import { isApiError } from '../../../lib/api-client';
 import { describeError } from '../../../components/ui';
@@ -161,6 +161,15 @@ export function useUploadQueue(matterId: number) {
   );
 
   const cancel = useCallback(() => abortRef.current?.abort(), []);
+
+  // Closing the tab mid-upload would cut the files still on their way: ask first
+  // (HTML Standard, "beforeunload"; browsers show their own wording).
+  useEffect(() => {
+    if (!running) return;
+    const warn = (event: BeforeUnloadEvent) => event.preventDefault();
+    window.addEventListener('beforeunload', warn);
+    return () => window.removeEventListener('beforeunload', warn);
+  }, [running]);
 
   return { items, batches, running, add, remove, clearFinished, start, cancel };
 }
