@@ -32,19 +32,31 @@ export default tseslint.config(
     rules: {
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'warn',
-      ...noImport(['**/server/**', '**/engine/**', '**/migrations/**'], 'The client talks to the server over HTTP only.'),
+      ...noImport(
+        ['**/server/**', '**/engine/**', '**/migrations/**'],
+        'The client talks to the server over HTTP only.',
+      ),
     },
   },
   {
     files: ['shared/**/*.ts'],
-    rules: noImport(['**/server/**', '**/src/**', '**/engine/**'], 'shared/ is imported by both sides and imports neither.'),
+    rules: noImport(
+      ['**/server/**', '**/src/**', '**/engine/**'],
+      'shared/ is imported by both sides and imports neither.',
+    ),
   },
   {
     files: ['engine/**/*.ts'],
-    rules: noImport(['**/server/**', '**/src/**', 'express'], 'The concept engine is independent of the web server.'),
+    rules: noImport(
+      ['**/server/**', '**/src/**', 'express'],
+      'The concept engine is independent of the web server.',
+    ),
   },
   {
     files: ['migrations/**/*.ts'],
-    rules: noImport(['**/server/**', '**/shared/**'], 'Migrations are frozen in time: they import nothing of the app.'),
+    rules: noImport(
+      ['**/server/**', '**/shared/**'],
+      'Migrations are frozen in time: they import nothing of the app.',
+    ),
   },
 );

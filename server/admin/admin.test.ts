@@ -16,13 +16,11 @@ afterAll(() => t.close());
 
 describe('firm admin', () => {
   test('creates an account with a temporary password that then signs in', async () => {
-    const created = await adminAgent
-      .post('/api/admin/users')
-      .send({
-        name: 'Tess Temp',
-        email: 'Tess@Example.com',
-        temporaryPassword: 'temporary password 1',
-      });
+    const created = await adminAgent.post('/api/admin/users').send({
+      name: 'Tess Temp',
+      email: 'Tess@Example.com',
+      temporaryPassword: 'temporary password 1',
+    });
     expect(created.status).toBe(201);
     expect(created.body.user).toMatchObject({
       email: 'tess@example.com',
@@ -31,13 +29,11 @@ describe('firm admin', () => {
       matterCount: 0,
     });
     await t.signIn(t.agent(), 'tess@example.com', 'temporary password 1');
-    const duplicate = await adminAgent
-      .post('/api/admin/users')
-      .send({
-        name: 'Tess Again',
-        email: 'tess@example.com',
-        temporaryPassword: 'temporary password 2',
-      });
+    const duplicate = await adminAgent.post('/api/admin/users').send({
+      name: 'Tess Again',
+      email: 'tess@example.com',
+      temporaryPassword: 'temporary password 2',
+    });
     expect(duplicate.status).toBe(409);
     expect(duplicate.body.error.field).toBe('email');
     const weak = await adminAgent
@@ -58,13 +54,11 @@ describe('firm admin', () => {
 
   test('creates a matter with a lead by e-mail, and the lead (not the admin) can open it', async () => {
     const lead = await t.buildUser({ email: 'matter.lead@example.com' });
-    const created = await adminAgent
-      .post('/api/matters')
-      .send({
-        name: 'Pellham Shipping v. Ostrava Grain',
-        controlPrefix: 'psog',
-        lead: 'Matter.Lead@example.com',
-      });
+    const created = await adminAgent.post('/api/matters').send({
+      name: 'Pellham Shipping v. Ostrava Grain',
+      controlPrefix: 'psog',
+      lead: 'Matter.Lead@example.com',
+    });
     expect(created.status).toBe(201);
     expect(created.body.matter).toMatchObject({
       name: 'Pellham Shipping v. Ostrava Grain',
