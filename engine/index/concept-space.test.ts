@@ -132,6 +132,10 @@ describe('build from text', () => {
       'tree',
       'user',
     ]);
+    // Labels: the most frequent surface word; a tie goes to the shorter ("order" over "ordered").
+    expect(space.labels[space.termId('comput')!]).toBe('computer');
+    expect(space.labels[space.termId('survei')!]).toBe('survey');
+    expect(space.labels[space.termId('tree')!]).toBe('trees');
     expect(diagnostics.k).toBeLessThanOrEqual(9);
     expect(diagnostics.notices.join(' ')).toMatch(/k lowered from 50/);
     expect(diagnostics.energy).toBeCloseTo(1, 6); // full rank kept: Eckart-Young energy 1

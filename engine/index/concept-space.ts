@@ -110,6 +110,8 @@ export interface ConceptSpaceData {
   docVectors: Float32Array;
   /** 1 for documents folded in after the build. */
   foldedIn: Uint8Array;
+  /** Display word per term (its most frequent surface form); the term itself when absent. */
+  labels?: string[];
 }
 
 export interface WeightedTerms {
@@ -166,6 +168,8 @@ export class ConceptSpace {
   readonly sigma: Float64Array;
   readonly termVectors: Float32Array;
   readonly k: number;
+  /** Display word per term ("computer" for the stem "comput"). */
+  readonly labels: string[];
   private readonly termIndex = new Map<string, number>();
   private ids: DocId[];
   private idIndex = new Map<DocId, number>();
@@ -189,6 +193,8 @@ export class ConceptSpace {
     this.globalWeights = data.globalWeights;
     this.sigma = data.sigma;
     this.termVectors = data.termVectors;
+    this.labels =
+      data.labels && data.labels.length === data.terms.length ? data.labels : data.terms;
     data.terms.forEach((term, id) => this.termIndex.set(term, id));
     this.ids = data.docIds.slice();
     this.ids.forEach((id, index) => {
@@ -230,7 +236,7 @@ export class ConceptSpace {
       tdm.counts,
       docs.map((d) => d.id),
       options,
-      { started, tokensPerDoc: tdm.tokensPerDoc },
+      { started, tokensPerDoc: tdm.tokensPerDoc, labels: tdm.labels },
     );
   }
 
@@ -244,7 +250,7 @@ export class ConceptSpace {
     counts: CsrMatrix,
     docIds: DocId[],
     options: ConceptSpaceOptions = {},
-    extra: { started?: number; tokensPerDoc?: Int32Array } = {},
+    extra: { started?: number; tokensPerDoc?: Int32Array; labels?: string[] } = {},
   ): { space: ConceptSpace; diagnostics: BuildDiagnostics } {
     const started = extra.started ?? performance.now();
     const { k: requestedK, weighting, scaling, minDf } = checkOptions(options);
@@ -343,6 +349,7 @@ export class ConceptSpace {
       docIds,
       docVectors,
       foldedIn: new Uint8Array(n),
+      labels: extra.labels,
     });
     options.onProgress?.(1);
     const diagnostics: BuildDiagnostics = {
@@ -418,6 +425,7 @@ export class ConceptSpace {
       docIds: this.ids.slice(0, this.count),
       docVectors: this.docMatrix,
       foldedIn: this.folded.subarray(0, this.count),
+      labels: this.labels,
     };
   }
 

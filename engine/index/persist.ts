@@ -248,6 +248,7 @@ export async function saveConceptSpace(
     }
     const blobs: [string, Uint8Array][] = [
       ['terms', Buffer.from(JSON.stringify(data.terms), 'utf8')],
+      ['labels', Buffer.from(JSON.stringify(data.labels ?? data.terms), 'utf8')],
       ['df', blobOf(data.df)],
       ['global_weights', blobOf(data.globalWeights)],
       ['term_vectors', blobOf(data.termVectors)],
@@ -389,7 +390,11 @@ function vocabularyFromBlobs(blobs: Map<string, Uint8Array>, k: number, indexId:
   ) {
     throw new Error(`index version ${indexId}: vocabulary BLOBs disagree in length`);
   }
-  return { terms, df, globalWeights, termVectors };
+  const labelsBlob = blobs.get('labels');
+  const labels = labelsBlob
+    ? (JSON.parse(Buffer.from(labelsBlob).toString('utf8')) as string[])
+    : undefined;
+  return { terms, df, globalWeights, termVectors, labels };
 }
 
 async function vocabularyFromRows(db: Kysely<IndexTables>, indexId: number, k: number) {

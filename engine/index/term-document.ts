@@ -4,7 +4,7 @@
 // Rows are terms, so the CSR arrays of A are also the CSC arrays of A^T: row i
 // lists the documents containing term i, in document order.
 import type { CsrMatrix } from '../sparse/csr';
-import { analyze } from '../text/analyzer';
+import { isStopWord, stem, tokenize } from '../text/analyzer';
 
 export interface TermDocumentOptions {
   /** Keep a term only when it occurs in at least this many documents (default 2). */
@@ -21,6 +21,8 @@ export interface TermDocumentMatrix {
   nDocs: number;
   /** Tokens seen in each document after analysis, before the minDf cut (for empty-document checks). */
   tokensPerDoc: Int32Array;
+  /** For display: each term's most frequent surface word ("computer" for "comput"). */
+  labels: string[];
 }
 
 /** A growable Int32Array (amortised doubling). */
@@ -57,13 +59,24 @@ export function buildTermDocumentMatrix(
   const docStart = new IntBuffer();
   const tokensPerDoc = new IntBuffer();
   const local = new Map<number, number>();
+  const surfaces = new Map<string, { term: string; count: number }>();
 
   for (const text of texts) {
     docStart.push(entryTerm.length);
     local.clear();
-    const terms = analyze(text);
-    tokensPerDoc.push(terms.length);
-    for (const term of terms) {
+    let tokens = 0;
+    // The analyzer's steps inline (tokenize, stop words, stem) so each surface word
+    // can be counted for the term's display label.
+    for (const surface of tokenize(text)) {
+      if (isStopWord(surface)) continue;
+      tokens++;
+      let seenSurface = surfaces.get(surface);
+      if (seenSurface === undefined) {
+        seenSurface = { term: stem(surface), count: 0 };
+        surfaces.set(surface, seenSurface);
+      }
+      seenSurface.count++;
+      const term = seenSurface.term;
       let id = seenId.get(term);
       if (id === undefined) {
         id = seenTerms.length;
@@ -73,6 +86,7 @@ export function buildTermDocumentMatrix(
       }
       local.set(id, (local.get(id) ?? 0) + 1);
     }
+    tokensPerDoc.push(tokens);
     for (const [id, count] of local) {
       entryTerm.push(id);
       entryCount.push(count);
@@ -94,6 +108,26 @@ export function buildTermDocumentMatrix(
     terms[id] = seenTerms[seen];
     df[id] = seenDf.data[seen];
   });
+
+  // Display labels: the most frequent surface word of each term (ties: the shorter,
+  // then the first in code-unit order).
+  const labels = terms.slice();
+  const labelCount = new Int32Array(terms.length);
+  for (const [surface, { term, count }] of surfaces) {
+    const seen = seenId.get(term)!;
+    const id = finalId[seen];
+    if (id < 0) continue;
+    const current = labels[id];
+    const better =
+      count > labelCount[id] ||
+      (count === labelCount[id] &&
+        (surface.length < current.length ||
+          (surface.length === current.length && surface < current)));
+    if (better) {
+      labels[id] = surface;
+      labelCount[id] = count;
+    }
+  }
 
   // CSR by term: row lengths are the document frequencies.
   const rowPtr = new Int32Array(terms.length + 1);
@@ -117,5 +151,6 @@ export function buildTermDocumentMatrix(
     counts: { rows: terms.length, cols: nDocs, rowPtr, colIdx, values },
     nDocs,
     tokensPerDoc: tokensPerDoc.data.slice(0, nDocs),
+    labels,
   };
 }

@@ -18,7 +18,9 @@ import { analyze } from '../text/analyzer';
 import { topCosine } from './top-n';
 
 export interface TermContribution {
+  /** The index term (a Porter stem) and the word to show for it. */
   term: string;
+  label: string;
   /** The term's weight in the query (or document) vector. */
   weight: number;
   contribution: number;
@@ -26,6 +28,7 @@ export interface TermContribution {
 
 export interface NearTerm {
   term: string;
+  label: string;
   similarity: number;
 }
 
@@ -69,6 +72,7 @@ function contributions(
     const weight = weighted.weights[p];
     out.push({
       term: space.terms[id],
+      label: space.labels[id],
       weight,
       contribution: scale * weight * termDot(space, id, other),
     });
@@ -152,7 +156,11 @@ export function nearestTerms(
   }
   const { rows, invNorms } = scaledTermRows(space, power);
   const top = topCosine(rows, k, space.nTerms, invNorms, x, n, { exclude });
-  return Array.from(top.indices, (i, r) => ({ term: space.terms[i], similarity: top.scores[r] }));
+  return Array.from(top.indices, (i, r) => ({
+    term: space.terms[i],
+    label: space.labels[i],
+    similarity: top.scores[r],
+  }));
 }
 
 const scaledCache = new WeakMap<

@@ -19,7 +19,8 @@ const stopWords: ReadonlySet<string> = new Set(englishStopWords);
 const STEM_CACHE_LIMIT = 200_000;
 const stemCache = new Map<string, string>();
 
-function stem(token: string): string {
+/** Porter stem of one lower-cased token (cached). */
+export function stem(token: string): string {
   let stemmed = stemCache.get(token);
   if (stemmed === undefined) {
     stemmed = PorterStemmer.stem(token);
