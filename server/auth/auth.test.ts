@@ -135,6 +135,21 @@ describe('sign-in and session cookie', () => {
     expect((await t.agent().get('/api/auth/me').set('Cookie', stolenCookie)).status).toBe(401);
   });
 
+  test('signing in again replaces the session: the previous session id stops working', async () => {
+    const agent = t.agent();
+    const first = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    const firstCookie = (sessionCookie(first.headers['set-cookie']) as string).split(';')[0];
+    const second = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    const secondCookie = (sessionCookie(second.headers['set-cookie']) as string).split(';')[0];
+    expect(secondCookie).not.toBe(firstCookie);
+    expect((await t.agent().get('/api/auth/me').set('Cookie', firstCookie)).status).toBe(401);
+    expect((await t.agent().get('/api/auth/me').set('Cookie', secondCookie)).status).toBe(200);
+  });
+
   test('Secure is set when served over HTTPS behind a trusted proxy (X-Forwarded-Proto)', async () => {
     const proxied = await createTestApp({ env: { QUARRY_TRUST_PROXY: '1' } });
     try {

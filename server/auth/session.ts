@@ -45,7 +45,7 @@ declare module 'lucia' {
 }
 
 export interface Auth {
-  /** Starts a session and writes its cookie on the response. */
+  /** Starts a session (ending the request's current one) and writes its cookie on the response. */
   startSession(req: Request, res: Response, userId: string): Promise<string>;
   /** Ends the request's session and clears its cookie. */
   endSession(req: Request, res: Response): Promise<void>;
@@ -99,6 +99,10 @@ export function createAuth(sqlite: SQLite.Database, config: Config): Auth {
 
   return {
     async startSession(req, res, userId) {
+      // A new id on every sign-in; the browser's previous session ends (session fixation,
+      // OWASP Session Management Cheat Sheet, "Renew the Session ID After Any Privilege
+      // Level Change").
+      if (req.auth) await lucia.invalidateSession(req.auth.sessionId);
       const session = await lucia.createSession(userId, {});
       res.append('Set-Cookie', serialize(req, lucia.createSessionCookie(session.id)));
       return session.id;

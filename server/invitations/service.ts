@@ -248,10 +248,7 @@ export async function acceptInvitation(
     return (member?.role ?? invitation.role) as MatterRole;
   });
 
-  if (req.auth?.user.id !== userId) {
-    if (req.auth) await ctx.auth.endSession(req, res);
-    await ctx.auth.startSession(req, res, userId);
-  }
+  if (req.auth?.user.id !== userId) await ctx.auth.startSession(req, res, userId);
   const user = await findUserById(ctx.db, userId);
   if (!user) throw notFound('Account');
   return {
