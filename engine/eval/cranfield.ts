@@ -12,6 +12,7 @@
 // so code 1 (most relevant) has grade 4 and code 4 grade 1; -1 rows are dropped.
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import type { Qrels } from './metrics';
 import type { EvalDocument, EvalQuery } from './readers';
 
@@ -108,4 +109,32 @@ export function cranfieldAsFiles(c: CranfieldCollection): {
     queries: c.queries.map((q) => JSON.stringify(q)).join('\n') + '\n',
     qrels: qrelLines.join('\n') + '\n',
   };
+}
+
+/**
+ * Converter: `node --import tsx engine/eval/cranfield.ts <out-dir> [cranfield-dir]`
+ * writes docs.jsonl, queries.jsonl and qrels.txt for `quarry eval`.
+ */
+async function main(argv: string[]): Promise<void> {
+  const [outDir, sourceDir] = argv;
+  if (!outDir) {
+    console.error('usage: node --import tsx engine/eval/cranfield.ts <out-dir> [cranfield-dir]');
+    process.exit(2);
+  }
+  const dir = sourceDir ?? cranfieldDir();
+  if (!cranfieldAvailable(dir)) {
+    console.error(`cranfield: cran.all.1400, cran.qry and cranqrel not found in ${dir}`);
+    process.exit(1);
+  }
+  const { mkdirSync, writeFileSync } = await import('node:fs');
+  const files = cranfieldAsFiles(readCranfield(dir));
+  mkdirSync(outDir, { recursive: true });
+  writeFileSync(join(outDir, 'docs.jsonl'), files.docs);
+  writeFileSync(join(outDir, 'queries.jsonl'), files.queries);
+  writeFileSync(join(outDir, 'qrels.txt'), files.qrels);
+  console.log(`wrote docs.jsonl, queries.jsonl, qrels.txt to ${outDir}`);
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(resolve(process.argv[1])).href) {
+  void main(process.argv.slice(2));
 }
