@@ -1,7 +1,10 @@
+import { accountSetupRoutes } from './account-setup/router';
 import { adminRoutes } from './admin/router';
 import { auditRoutes } from './audit/router';
+import { codeRoutes } from './codes/router';
 import { authRoutes } from './auth/router';
 import { devRoutes } from './dev/router';
+import { exportRoutes } from './exports/router';
 import { documentRoutes } from './documents/router';
 import type { AnyRouteSpec } from './http/route';
 import { indexRoutes } from './indexing/router';
@@ -9,6 +12,9 @@ import { invitationRoutes } from './invitations/router';
 import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
+import { reviewRoutes } from './review/router';
+import { savedSearchRoutes } from './saved-searches/router';
+import { searchRoutes } from './search/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -16,12 +22,18 @@ import { memberRoutes } from './members/router';
  */
 export const apiRoutes: readonly AnyRouteSpec[] = [
   ...authRoutes,
+  ...accountSetupRoutes,
   ...adminRoutes,
   ...matterRoutes,
   ...memberRoutes,
   ...invitationRoutes,
   ...auditRoutes,
   ...devRoutes,
+  ...searchRoutes,
+  ...codeRoutes,
+  ...reviewRoutes,
+  ...savedSearchRoutes,
+  ...exportRoutes,
   ...documentRoutes,
   ...jobRoutes,
   ...indexRoutes,

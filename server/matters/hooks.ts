@@ -1,4 +1,5 @@
 import type { Transaction } from 'kysely';
+import { createDefaultCodes } from '../codes/defaults';
 import type { Database } from '../db/schema';
 
 /** A step run inside the transaction that creates a matter (e.g. the default code set). */
@@ -8,4 +9,4 @@ export type MatterCreatedStep = (trx: Transaction<Database>, matterId: number) =
  * Steps every new matter gets, in order, from the admin screen and the demo seed alike.
  * Features add theirs here, e.g. the codes feature's default code set.
  */
-export const matterCreatedSteps: MatterCreatedStep[] = [];
+export const matterCreatedSteps: MatterCreatedStep[] = [createDefaultCodes];

@@ -200,7 +200,10 @@ describe.each(
     const expected = expectedOutcome(spec.access, caller);
     const response = await callAs(caller, spec);
     const detail = `${caller} -> ${response.status} ${JSON.stringify(response.body)}`;
-    expect(response.headers['content-type'] ?? '', detail).toMatch(/json|^$/);
+    // Refusals are JSON; an allowed file download (a CSV export) answers its own type.
+    expect(response.headers['content-type'] ?? '', detail).toMatch(
+      expected === 'allowed' ? /json|^text\/csv|^$/ : /json|^$/,
+    );
     if (expected === 'allowed') {
       expect([401, 403], detail).not.toContain(response.status);
       expect(response.status, detail).toBeLessThan(500);

@@ -1,0 +1,237 @@
+import type SQLite from 'better-sqlite3';
+import {
+  sql,
+  type Compilable,
+  type Kysely,
+  type RawBuilder,
+  type SqlBool,
+  type Transaction,
+} from 'kysely';
+import type { SearchFilters, SearchSort } from '../../shared/schemas/search';
+import type { Database } from '../db/schema';
+
+type Executor = Kysely<Database> | Transaction<Database>;
+
+// Queries are written in Kysely; the two that return up to a whole matter's ids
+// (filter candidates, keyword matches) are compiled by Kysely and run on the raw
+// better-sqlite3 handle with raw rows, which avoids building 100,000 row objects.
+
+const statementCache = new WeakMap<SQLite.Database, Map<string, SQLite.Statement>>();
+
+function prepared(sqlite: SQLite.Database, text: string): SQLite.Statement {
+  let cache = statementCache.get(sqlite);
+  if (!cache) statementCache.set(sqlite, (cache = new Map()));
+  let stmt = cache.get(text);
+  if (!stmt) {
+    stmt = sqlite.prepare(text);
+    if (cache.size > 200) cache.clear();
+    cache.set(text, stmt);
+  }
+  return stmt;
+}
+
+function rawRows(sqlite: SQLite.Database, query: Compilable): unknown[][] {
+  const compiled = query.compile();
+  return prepared(sqlite, compiled.sql)
+    .raw(true)
+    .all(...(compiled.parameters as unknown[])) as unknown[][];
+}
+
+/** True when the filters restrict which documents may match (includeDuplicates does not). */
+export function restricts(filters: SearchFilters): boolean {
+  return Boolean(
+    filters.custodianIds?.length ||
+    filters.dateFrom ||
+    filters.dateTo ||
+    filters.docTypes?.length ||
+    filters.codeIds?.length ||
+    filters.uncodedOnly,
+  );
+}
+
+/** The day after an ISO date (YYYY-MM-DD), for an inclusive dateTo. */
+function nextDay(date: string): string {
+  const d = new Date(`${date}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + 1);
+  return d.toISOString().slice(0, 10);
+}
+
+/**
+ * The filters as one SQL condition on `d` (documents). Dates compare the ISO-8601
+ * sent_at strings (lexical order is time order); a document without a date never
+ * passes a date filter.
+ */
+export function filterCondition(filters: SearchFilters): RawBuilder<SqlBool> {
+  const parts: RawBuilder<unknown>[] = [sql`1`];
+  const list = (values: readonly (string | number)[]) => sql.join(values.map((v) => sql`${v}`));
+  if (filters.custodianIds?.length)
+    parts.push(sql`d.custodian_id IN (${list(filters.custodianIds)})`);
+  if (filters.dateFrom) parts.push(sql`d.sent_at >= ${filters.dateFrom}`);
+  if (filters.dateTo) parts.push(sql`d.sent_at < ${nextDay(filters.dateTo)}`);
+  if (filters.docTypes?.length) parts.push(sql`d.doc_type IN (${list(filters.docTypes)})`);
+  if (filters.codeIds?.length) {
+    parts.push(
+      sql`EXISTS (SELECT 1 FROM document_codes dc WHERE dc.document_id = d.id AND dc.code_id IN (${list(filters.codeIds)}))`,
+    );
+  }
+  if (filters.uncodedOnly)
+    parts.push(sql`NOT EXISTS (SELECT 1 FROM document_codes dc WHERE dc.document_id = d.id)`);
+  return sql<SqlBool>`(${sql.join(parts, sql` AND `)})`;
+}
+
+/** Ids of the matter's searchable (extracted) documents that pass the filters. */
+export function filteredDocumentIds(
+  db: Executor,
+  sqlite: SQLite.Database,
+  matterId: number,
+  filters: SearchFilters,
+): number[] {
+  const query = db
+    .selectFrom('documents as d')
+    .select('d.id')
+    .where('d.matter_id', '=', matterId)
+    .where('d.extract_status', '=', 'extracted')
+    .where(filterCondition(filters));
+  return rawRows(sqlite, query).map((row) => row[0] as number);
+}
+
+/**
+ * FTS5 bm25 keyword matches in the matter that pass the filters, best first, as
+ * [documentId, score] with score = -bm25 (higher is better). `match` must come from
+ * toFtsMatchExpression (engine/search/keyword.ts): user text never reaches FTS5 as syntax.
+ */
+export function keywordMatches(
+  db: Executor,
+  sqlite: SQLite.Database,
+  matterId: number,
+  match: string,
+  filters: SearchFilters,
+  limit: number,
+): { ids: number[]; scores: number[] } {
+  const query = db
+    .selectFrom('documents_fts')
+    .innerJoin('documents as d', 'd.id', 'documents_fts.rowid')
+    .select(['documents_fts.rowid as id', sql<number>`-bm25(documents_fts)`.as('score')])
+    .where(sql<SqlBool>`documents_fts MATCH ${match}`)
+    .where('d.matter_id', '=', matterId)
+    .where('d.extract_status', '=', 'extracted')
+    .where(filterCondition(filters))
+    .orderBy(sql`bm25(documents_fts)`)
+    .limit(limit);
+  const rows = rawRows(sqlite, query);
+  return { ids: rows.map((r) => r[0] as number), scores: rows.map((r) => r[1] as number) };
+}
+
+/** Duplicates (same SHA-256, status 'duplicate') of the given first copies, passing the filters. */
+export async function duplicatesOf(
+  db: Executor,
+  matterId: number,
+  ids: number[],
+  filters: SearchFilters,
+) {
+  const out: { id: number; duplicate_of: number }[] = [];
+  for (let start = 0; start < ids.length; start += 900) {
+    const rows = await db
+      .selectFrom('documents as d')
+      .select(['d.id', 'd.duplicate_of'])
+      .where('d.matter_id', '=', matterId)
+      .where('d.extract_status', '=', 'duplicate')
+      .where('d.duplicate_of', 'in', ids.slice(start, start + 900))
+      .where(filterCondition(filters))
+      .orderBy('d.control_number')
+      .execute();
+    for (const row of rows) out.push({ id: row.id, duplicate_of: row.duplicate_of! });
+  }
+  return out;
+}
+
+const SORT_COLUMNS: Record<Exclude<SearchSort['field'], 'score'>, RawBuilder<unknown>> = {
+  controlNumber: sql`d.control_number`,
+  date: sql`d.sent_at`,
+  title: sql`d.title COLLATE NOCASE`,
+  custodian: sql`c.name COLLATE NOCASE`,
+  docType: sql`d.doc_type`,
+};
+
+/**
+ * One page of the result set ordered by a document field (missing values last, then
+ * control number). The ids travel as one JSON array through json_each.
+ */
+export async function sortedPage(
+  db: Executor,
+  ids: number[],
+  sort: SearchSort & { field: Exclude<SearchSort['field'], 'score'> },
+  limit: number,
+  offset: number,
+): Promise<number[]> {
+  const column = SORT_COLUMNS[sort.field];
+  const direction = sort.direction === 'asc' ? sql`ASC` : sql`DESC`;
+  const nullable = sort.field === 'date' || sort.field === 'custodian';
+  const rows = await sql<{ id: number }>`
+    SELECT d.id AS id
+      FROM json_each(${JSON.stringify(ids)}) AS j
+      JOIN documents d ON d.id = j.value
+      LEFT JOIN custodians c ON c.id = d.custodian_id
+     ORDER BY ${nullable ? sql`${column} IS NULL, ` : sql``}${column} ${direction}, d.control_number ASC
+     LIMIT ${limit} OFFSET ${offset}`.execute(db);
+  return rows.rows.map((r) => r.id);
+}
+
+/** Listing fields of the given documents, with the custodian's name. */
+export async function documentsByIds(db: Executor, matterId: number, ids: number[]) {
+  const out = [];
+  for (let start = 0; start < ids.length; start += 900) {
+    out.push(
+      ...(await db
+        .selectFrom('documents as d')
+        .leftJoin('custodians as c', 'c.id', 'd.custodian_id')
+        .select([
+          'd.id',
+          'd.control_number',
+          'd.title',
+          'd.original_name',
+          'd.doc_type',
+          'd.sent_at',
+          'd.parent_id',
+          'd.duplicate_of',
+          'c.name as custodian_name',
+        ])
+        .where('d.matter_id', '=', matterId)
+        .where('d.id', 'in', ids.slice(start, start + 900))
+        .execute()),
+    );
+  }
+  return out;
+}
+
+export function textsByIds(db: Executor, ids: number[]) {
+  if (ids.length === 0) return Promise.resolve([]);
+  return db
+    .selectFrom('document_texts')
+    .select(['document_id', 'title', 'body'])
+    .where('document_id', 'in', ids)
+    .execute();
+}
+
+export function findSearchableDocument(db: Executor, matterId: number, docId: number) {
+  return db
+    .selectFrom('documents as d')
+    .leftJoin('document_texts as t', 't.document_id', 'd.id')
+    .select(['d.id', 'd.extract_status', 'd.duplicate_of', 't.title', 't.body'])
+    .where('d.matter_id', '=', matterId)
+    .where('d.id', '=', docId)
+    .executeTakeFirst();
+}
+
+/** The caller's recent search.run events in the matter, newest first. */
+export function recentSearchEvents(db: Executor, matterId: number, userId: string, limit: number) {
+  return db
+    .selectFrom('audit_events')
+    .select(['at', 'detail'])
+    .where('actor_id', '=', userId)
+    .where('matter_id', '=', matterId)
+    .where('action', '=', 'search.run')
+    .orderBy('id', 'desc')
+    .limit(limit)
+    .execute();
+}
