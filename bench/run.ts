@@ -218,7 +218,7 @@ async function main() {
     };
     const svds: Record<number, TruncatedSvd> = {};
     for (const k of ks) {
-      const svd = truncatedSvd(a, { k, seed: 1 });
+      const svd = truncatedSvd(a, { k, seed: 1, threads: 2 });
       svds[k] = svd;
       const row = {
         k,
@@ -309,8 +309,15 @@ async function main() {
     entry.rssMbAfter = rssMb();
     results.push(entry);
     log(`peak RSS so far ${peakMb().toFixed(0)} MB`);
+    await writeReport(results, false);
   }
+  await writeReport(results, true);
+  log('done');
+}
+
+async function writeReport(results: Record<string, unknown>[], complete: boolean) {
   const report = {
+    complete,
     generatedAt: new Date().toISOString(),
     quick,
     machine: {
@@ -327,7 +334,6 @@ async function main() {
     `${JSON.stringify(report, null, 2)}\n`,
   );
   if (!quick) writePerformanceDoc(report);
-  log('done');
 }
 
 function writePerformanceDoc(report: {

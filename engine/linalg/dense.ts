@@ -297,3 +297,115 @@ export function householderQr(y: Float64Array, n: number, b: number): Float64Arr
   for (let i = 0; i < n; i++) for (let j = 0; j < b; j++) y[i * b + j] = q[j * n + i];
   return r;
 }
+
+/**
+ * C (w x b, row-major) += X[:, 0:w]^T Z over rows [rowStart, rowEnd), where X is n x
+ * strideX (its first w columns used) and Z is n x b. Chunked transposition as in
+ * gramAccumulate, so each entry is a contiguous dot product.
+ */
+export function crossAccumulate(
+  x: Float64Array,
+  strideX: number,
+  w: number,
+  z: Float64Array,
+  b: number,
+  c: Float64Array,
+  rowStart: number,
+  rowEnd: number,
+): void {
+  const R = GRAM_CHUNK;
+  const xt = new Float64Array(w * R);
+  const zt = new Float64Array(b * R);
+  for (let r0 = rowStart; r0 < rowEnd; r0 += R) {
+    const len = Math.min(R, rowEnd - r0);
+    for (let r = 0; r < len; r++) {
+      const xo = (r0 + r) * strideX;
+      const zo = (r0 + r) * b;
+      for (let a = 0; a < w; a++) xt[a * R + r] = x[xo + a];
+      for (let j = 0; j < b; j++) zt[j * R + r] = z[zo + j];
+    }
+    let a = 0;
+    for (; a + 3 < w; a += 4) {
+      const a0 = a * R;
+      const a1 = a0 + R;
+      const a2 = a1 + R;
+      const a3 = a2 + R;
+      for (let j = 0; j < b; j++) {
+        const jo = j * R;
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        for (let r = 0; r < len; r++) {
+          const v = zt[jo + r];
+          s0 += xt[a0 + r] * v;
+          s1 += xt[a1 + r] * v;
+          s2 += xt[a2 + r] * v;
+          s3 += xt[a3 + r] * v;
+        }
+        c[a * b + j] += s0;
+        c[(a + 1) * b + j] += s1;
+        c[(a + 2) * b + j] += s2;
+        c[(a + 3) * b + j] += s3;
+      }
+    }
+    for (; a < w; a++) {
+      const ao = a * R;
+      for (let j = 0; j < b; j++) {
+        const jo = j * R;
+        let s = 0;
+        for (let r = 0; r < len; r++) s += xt[ao + r] * zt[jo + r];
+        c[a * b + j] += s;
+      }
+    }
+  }
+}
+
+/**
+ * Z (n x b) -= X[:, 0:w] C for X n x strideX and C given TRANSPOSED as ct (b x w):
+ * one block classical Gram-Schmidt update. Four rows at a time, dot-product form.
+ */
+export function subtractProduct(
+  x: Float64Array,
+  strideX: number,
+  w: number,
+  ct: Float64Array,
+  z: Float64Array,
+  b: number,
+  n: number,
+): void {
+  let r = 0;
+  for (; r + 3 < n; r += 4) {
+    const x0 = r * strideX;
+    const x1 = x0 + strideX;
+    const x2 = x1 + strideX;
+    const x3 = x2 + strideX;
+    for (let j = 0; j < b; j++) {
+      const co = j * w;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      for (let i = 0; i < w; i++) {
+        const v = ct[co + i];
+        s0 += x[x0 + i] * v;
+        s1 += x[x1 + i] * v;
+        s2 += x[x2 + i] * v;
+        s3 += x[x3 + i] * v;
+      }
+      z[r * b + j] -= s0;
+      z[(r + 1) * b + j] -= s1;
+      z[(r + 2) * b + j] -= s2;
+      z[(r + 3) * b + j] -= s3;
+    }
+  }
+  for (; r < n; r++) {
+    const xo = r * strideX;
+    for (let j = 0; j < b; j++) {
+      const co = j * w;
+      let s = 0;
+      for (let i = 0; i < w; i++) s += x[xo + i] * ct[co + i];
+      z[r * b + j] -= s;
+    }
+  }
+}

@@ -11,15 +11,19 @@
 //
 // Dense blocks are row-major (n x b) so the CSR gather loop reads contiguous rows.
 
-import { SingularValueDecomposition, Matrix } from 'ml-matrix';
+import { EigenvalueDecomposition, SingularValueDecomposition, Matrix } from 'ml-matrix';
 import { type CsrMatrix, csrTimesBlock, csrTimesVector, transposeCsr } from '../sparse/csr';
-import { orthonormalize, timesSmall } from './dense';
+import { crossAccumulate, orthonormalize, subtractProduct, timesSmall } from './dense';
 import { fillGaussian, mulberry32 } from './random';
 import { parallelCsrOperator } from './parallel';
 
 export interface SvdOptions {
   k: number;
-  method?: 'randomized' | 'lanczos';
+  /**
+   * 'block-krylov' (default): randomized block Krylov / block Lanczos; 'randomized':
+   * subspace iteration; 'lanczos': single-vector Golub-Kahan-Lanczos (reference).
+   */
+  method?: 'randomized' | 'lanczos' | 'block-krylov';
   /** Extra columns in the range block beyond k (Halko et al. section 4.2's p). */
   oversample?: number;
   /** Number of A A^T applications after the first A Omega (Halko et al.'s q). */
@@ -60,7 +64,8 @@ export const EPSILON = 2 ** -52;
 export function defaultOversample(k: number): number {
   return Math.max(20, Math.ceil(k * 0.1));
 }
-export const DEFAULT_POWER_ITERATIONS = 3;
+export const DEFAULT_POWER_ITERATIONS = 5;
+export const DEFAULT_METHOD = 'block-krylov';
 
 /**
  * Numerical rank: the count of s_i > max(rows, cols) * eps * s_1 (Golub & Van Loan,
@@ -90,9 +95,12 @@ export function validateK(k: number, rows: number, cols: number): void {
 
 export function truncatedSvd(a: CsrMatrix, options: SvdOptions): TruncatedSvd {
   validateK(options.k, a.rows, a.cols);
-  const method = options.method ?? 'randomized';
+  const method = options.method ?? DEFAULT_METHOD;
   if (method === 'lanczos') return lanczosSvd(a, options);
-  if (method !== 'randomized') throw new RangeError(`unknown SVD method "${String(method)}"`);
+  if (method !== 'randomized' && method !== 'block-krylov') {
+    throw new RangeError(`unknown SVD method "${String(method)}"`);
+  }
+  options = { ...options, method };
   if ((options.threads ?? 1) >= 2) {
     const operator = parallelCsrOperator(a);
     try {
@@ -149,54 +157,184 @@ export function randomizedSvdWith(operator: BlockOperator, options: SvdOptions):
   const flip = operator.rows > operator.cols;
   const op = flip ? transposed(operator) : operator;
   const m = op.rows;
-  const n = op.cols;
   const q = Math.max(0, Math.floor(options.powerIterations ?? DEFAULT_POWER_ITERATIONS));
-  const l = Math.min(k + Math.max(0, Math.floor(options.oversample ?? defaultOversample(k))), m);
-  const totalSteps = 2 * q + 2;
-  let step = 0;
-  const progress = () => options.onProgress?.(Math.min(1, ++step / totalSteps));
-
+  const p = Math.max(0, Math.floor(options.oversample ?? defaultOversample(k)));
   const allocate = (length: number) => op.allocate?.(length) ?? new Float64Array(length);
-  const omega = allocate(n * l);
-  fillGaussian(omega, options.seed ?? 0x5eed);
-  const y = allocate(m * l);
-  op.times(omega, l, y);
-  progress();
-  const z = omega; // reuse: n x l
-  orthonormalize(y, m, l, q === 0 ? 2 : 1);
-  for (let it = 0; it < q; it++) {
-    op.timesTranspose(y, l, z);
-    progress();
-    // Z is only an intermediate: keep it well-conditioned but skip the second pass.
-    orthonormalize(z, n, l, 1);
-    op.times(z, l, y);
-    progress();
-    orthonormalize(y, m, l, it === q - 1 ? 2 : 1);
+  const seed = options.seed ?? 0x5eed;
+  const blockWidth = Math.ceil((k + p) / 2);
+  const krylov = options.method === 'block-krylov';
+  let range: { q: Float64Array; l: number; label: string };
+  if (krylov && q >= 1 && blockWidth * (q + 1) < m) {
+    range = blockKrylovRange(op, k + p, blockWidth, q + 1, seed, allocate, options.onProgress);
+  } else if (krylov) {
+    // The Krylov basis would span the whole short side: take that side exactly instead
+    // (l = m, one product, no iteration needed).
+    range = subspaceIterationRange(op, m, 0, seed, allocate, options.onProgress);
+  } else {
+    range = subspaceIterationRange(op, Math.min(k + p, m), q, seed, allocate, options.onProgress);
   }
-  // B = Q^T A, formed as its transpose Z = A^T Q (n x l); Z = Qz Rz, so
-  // B = Rz^T Qz^T and the SVD of the small Rz^T gives A ~ (Q Ub) S (Qz Vb)^T.
-  op.timesTranspose(y, l, z);
-  progress();
-  const { r } = orthonormalize(z, n, l, 2);
-  const small = smallSvd(transposeSquare(r, l), l);
-  const s = small.s.slice(0, k);
-  // U = Q Ub[:, :k] and V = Qz Vb[:, :k]; timesSmall wants the small factor transposed.
-  const ubT = firstColumnsTransposed(small.u, l, k);
-  const vbT = firstColumnsTransposed(small.v, l, k);
-  const uOut = new Float64Array(m * k);
-  const vOut = new Float64Array(n * k);
-  timesSmall(y, l, ubT, k, uOut, 0, m);
-  timesSmall(z, l, vbT, k, vOut, 0, n);
+  const { u, v, s } = finishFromRange(op, range.q, range.l, k);
+  options.onProgress?.(1);
   return {
     k,
     rows: operator.rows,
     cols: operator.cols,
     s,
-    U: flip ? vOut : uOut,
-    V: flip ? uOut : vOut,
+    U: flip ? v : u,
+    V: flip ? u : v,
     ms: performance.now() - started,
-    method: `randomized (q=${q}, p=${l - k}${operator.allocate ? ', 2 threads' : ''})`,
+    method: `${range.label}${operator.allocate ? ', 2 threads' : ''}`,
   };
+}
+
+type Allocate = (length: number) => Float64Array;
+
+/** Halko et al. Alg. 4.4: Q spanning (A A^T)^q A Omega, re-orthonormalised after each product. */
+function subspaceIterationRange(
+  op: BlockOperator,
+  l: number,
+  q: number,
+  seed: number,
+  allocate: Allocate,
+  onProgress?: (fraction: number) => void,
+): { q: Float64Array; l: number; label: string } {
+  const m = op.rows;
+  const n = op.cols;
+  const totalSteps = 2 * q + 2;
+  let step = 0;
+  const progress = () => onProgress?.(Math.min(0.99, ++step / totalSteps));
+  const omega = allocate(n * l);
+  fillGaussian(omega, seed);
+  const y = allocate(m * l);
+  op.times(omega, l, y);
+  progress();
+  const z = omega;
+  orthonormalize(y, m, l, q === 0 ? 2 : 1);
+  for (let it = 0; it < q; it++) {
+    op.timesTranspose(y, l, z);
+    progress();
+    orthonormalize(z, n, l, 1);
+    op.times(z, l, y);
+    progress();
+    orthonormalize(y, m, l, it === q - 1 ? 2 : 1);
+  }
+  return { q: y, l, label: `randomized subspace iteration (q=${q}, l=${l})` };
+}
+
+/**
+ * Randomized block Krylov range finder (Musco & Musco, "Randomized block Krylov methods
+ * for stronger and faster approximate singular value decomposition", NIPS 2015, Alg. 2;
+ * block Lanczos with full reorthogonalisation, Golub & Underwood 1977): an orthonormal
+ * basis P of [A Omega, (A A^T) A Omega, ..., (A A^T)^(blocks-1) A Omega] built by block
+ * classical Gram-Schmidt applied twice, whose coefficients form the projected matrix
+ * H = P^T A A^T P for free; the top-l Ritz vectors P E_l are returned.
+ */
+function blockKrylovRange(
+  op: BlockOperator,
+  l: number,
+  b: number,
+  blocks: number,
+  seed: number,
+  allocate: Allocate,
+  onProgress?: (fraction: number) => void,
+): { q: Float64Array; l: number; label: string } {
+  const m = op.rows;
+  const n = op.cols;
+  const K = b * blocks;
+  const basis = allocate(m * K); // row-major, stride K
+  const h = new Float64Array(K * K);
+  const zn = allocate(n * b);
+  const w = allocate(m * b);
+  fillGaussian(zn, seed);
+  op.times(zn, b, w);
+  orthonormalize(w, m, b, 2);
+  const place = (offset: number) => {
+    for (let i = 0; i < m; i++) basis.set(w.subarray(i * b, (i + 1) * b), i * K + offset);
+  };
+  const block = new Float64Array(m * b);
+  place(0);
+  const totalSteps = 2 * blocks + 1;
+  let step = 1;
+  const progress = () => onProgress?.(Math.min(0.99, ++step / totalSteps));
+  const project = (width: number, coefficients: Float64Array) => {
+    const c = new Float64Array(width * b);
+    crossAccumulate(basis, K, width, w, b, c, 0, m);
+    const ct = new Float64Array(b * width);
+    for (let i = 0; i < width; i++) for (let j = 0; j < b; j++) ct[j * width + i] = c[i * b + j];
+    subtractProduct(basis, K, width, ct, w, b, m);
+    for (let i = 0; i < c.length; i++) coefficients[i] += c[i];
+  };
+  for (let j = 0; j < blocks; j++) {
+    const offset = j * b;
+    for (let i = 0; i < m; i++)
+      block.set(basis.subarray(i * K + offset, i * K + offset + b), i * b);
+    op.timesTranspose(block, b, zn);
+    progress();
+    op.times(zn, b, w); // w = A A^T P_j
+    progress();
+    const width = offset + b;
+    const coefficients = new Float64Array(width * b);
+    project(width, coefficients);
+    if (j < blocks - 1) project(width, coefficients);
+    for (let i = 0; i < width; i++) {
+      for (let c = 0; c < b; c++) h[i * K + offset + c] = coefficients[i * b + c];
+    }
+    if (j === blocks - 1) break;
+    const { r, method } = orthonormalize(w, m, b, 2);
+    if (method === 'householder') {
+      // Rank-deficient block (the Krylov space is exhausted): the fresh directions the
+      // Householder Q supplies must still be made orthogonal to the basis.
+      project(width, new Float64Array(width * b));
+      orthonormalize(w, m, b, 2);
+    }
+    for (let i = 0; i < b; i++)
+      for (let c = i; c < b; c++) h[(width + i) * K + offset + c] = r[i * b + c];
+    place(width);
+  }
+  // H is symmetric in exact arithmetic (P^T A A^T P); symmetrise its rounding.
+  const rows: number[][] = [];
+  for (let i = 0; i < K; i++) {
+    const row: number[] = new Array(K);
+    for (let c = 0; c < K; c++) row[c] = (h[i * K + c] + h[c * K + i]) / 2;
+    rows.push(row);
+  }
+  const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
+  const values = evd.realEigenvalues;
+  const order = values.map((_, i) => i).sort((x, y) => values[y] - values[x]);
+  const vectors = evd.eigenvectorMatrix;
+  const lOut = Math.min(l, K);
+  const et = new Float64Array(lOut * K);
+  for (let c = 0; c < lOut; c++)
+    for (let i = 0; i < K; i++) et[c * K + i] = vectors.get(i, order[c]);
+  const qOut = allocate(m * lOut);
+  timesSmall(basis, K, et, lOut, qOut, 0, m);
+  return { q: qOut, l: lOut, label: `block Krylov (${blocks} blocks of ${b}, l=${lOut})` };
+}
+
+/**
+ * Halko et al. Alg. 5.1 from an orthonormal range basis Q (m x l): B^T = A^T Q = Qz Rz,
+ * SVD of the small Rz^T = Ub S Vb^T, so A ~ (Q Ub) S (Qz Vb)^T; the top k are kept.
+ */
+function finishFromRange(
+  op: BlockOperator,
+  q: Float64Array,
+  l: number,
+  k: number,
+): { u: Float64Array; v: Float64Array; s: Float64Array } {
+  const m = op.rows;
+  const n = op.cols;
+  const z = op.allocate?.(n * l) ?? new Float64Array(n * l);
+  op.timesTranspose(q, l, z);
+  const { r } = orthonormalize(z, n, l, 2);
+  const small = smallSvd(transposeSquare(r, l), l);
+  const s = small.s.slice(0, k);
+  const ubT = firstColumnsTransposed(small.u, l, k);
+  const vbT = firstColumnsTransposed(small.v, l, k);
+  const u = new Float64Array(m * k);
+  const v = new Float64Array(n * k);
+  timesSmall(q, l, ubT, k, u, 0, m);
+  timesSmall(z, l, vbT, k, v, 0, n);
+  return { u, v, s };
 }
 
 function transposeSquare(r: Float64Array, b: number): Float64Array {
