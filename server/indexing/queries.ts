@@ -34,6 +34,8 @@ export async function insertBuildingVersion(
   values: {
     matterId: number;
     k: number;
+    /** null when k was chosen automatically from the matter's size. */
+    requestedK: number | null;
     weighting: string;
     jobId: number;
     requestedBy: string | null;
@@ -53,7 +55,7 @@ export async function insertBuildingVersion(
       status: 'building',
       k: values.k,
       weighting: values.weighting,
-      params: JSON.stringify({ requestedK: values.k, weighting: values.weighting }),
+      params: JSON.stringify({ requestedK: values.requestedK, weighting: values.weighting }),
       job_id: values.jobId,
       requested_by: values.requestedBy,
       created_at: new Date().toISOString(),

@@ -14,7 +14,7 @@ import {
 } from '../../engine/index/persist';
 import type { Weighting } from '../../engine/index/weighting';
 import {
-  INDEX_K_DEFAULT,
+  automaticK,
   type IndexStateResponse,
   type IndexVersionInfo,
   type IndexWeighting,
@@ -260,28 +260,36 @@ export class IndexService {
     return { job: jobRowToApi(job!) };
   }
 
-  /** The settings a build uses: those asked for, else the serving version's, else defaults. */
+  /**
+   * The settings a build uses: those asked for, else the serving version's, else defaults.
+   * A k nobody asked for (requestedK null) is chosen afresh from the matter's size at
+   * every build, so a matter that grows gets more axes (automaticK).
+   */
   private async buildSettings(matterId: number, payload: BuildIndexPayload) {
-    let k = payload.k;
+    let requestedK: number | null = payload.k ?? null;
     let weighting = payload.weighting as Weighting | undefined;
     const currentId = await currentIndexIdOf(this.db, matterId);
     const current = currentId !== null ? await findIndexVersion(this.db, currentId) : undefined;
     if (current) {
       const params = parseParams(current);
-      k ??= typeof params.requestedK === 'number' ? params.requestedK : current.k;
+      if (requestedK === null && typeof params.requestedK === 'number') {
+        requestedK = params.requestedK;
+      }
       weighting ??= current.weighting as Weighting;
     }
-    return { k: k ?? INDEX_K_DEFAULT, weighting: weighting ?? 'log-entropy' };
+    const k = requestedK ?? automaticK(await countExtracted(this.db, matterId));
+    return { k, requestedK, weighting: weighting ?? 'log-entropy' };
   }
 
   /** The build-index job: worker build, then the one-transaction switch, then catch-up fold-in. */
   async runBuild(run: JobRun<BuildIndexPayload>): Promise<string> {
     const matterId = run.job.matter_id;
     if (matterId === null) throw new Error('build-index job without a matter');
-    const { k, weighting } = await this.buildSettings(matterId, run.payload);
+    const { k, requestedK, weighting } = await this.buildSettings(matterId, run.payload);
     const { id: indexId, version } = await insertBuildingVersion(this.db, {
       matterId,
       k,
+      requestedK,
       weighting,
       jobId: run.job.id,
       requestedBy: run.payload.requestedBy ?? null,
@@ -321,7 +329,7 @@ export class IndexService {
           detail: {
             version,
             k: summary.k,
-            requestedK: k,
+            requestedK,
             weighting,
             documents: summary.nDocs,
             terms: summary.nTerms,

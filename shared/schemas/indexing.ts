@@ -8,6 +8,18 @@ export const INDEX_WEIGHTINGS = ['log-entropy', 'tf-idf', 'raw'] as const;
 export type IndexWeighting = (typeof INDEX_WEIGHTINGS)[number];
 
 export const INDEX_K_DEFAULT = 200;
+
+/**
+ * The k a build uses when nobody asked for one: 200 for a large matter, but well below
+ * the number of documents for a small one. With k near the document count the rank-k
+ * space reproduces the term-document matrix almost exactly and concept search falls
+ * back to keyword matching (Deerwester et al. 1990 chose k = 100 for 1,033 documents;
+ * on Cranfield's 1,400 the best k measured here is 200, docs/RETRIEVAL.md). One axis per
+ * twelve documents, from 10 up to 200, is our rule of thumb (measured on the demo matter).
+ */
+export function automaticK(documentCount: number): number {
+  return Math.max(10, Math.min(INDEX_K_DEFAULT, Math.round(documentCount / 12)));
+}
 export const INDEX_K_MAX = 1000;
 
 /** POST /api/matters/:matterId/index/rebuild (202). Defaults: the current version's settings. */
