@@ -95,12 +95,12 @@ describeBrowser('foundation: invite a reviewer end to end', () => {
         .first();
       const href = await link.getAttribute('href');
       expect(href).toMatch(new RegExp(`^${quarry.baseUrl}/invitations/[A-Za-z0-9_-]{43}$`));
-    await p.screenshot({ path: join(ARTIFACTS_DIR, 'dev-mail.png'), fullPage: true });
+      await p.screenshot({ path: join(ARTIFACTS_DIR, 'dev-mail.png'), fullPage: true });
 
       // 4. Follow the link and accept by creating the account.
       await link.click();
       await p.getByTestId('invitation-page').waitFor();
-    await p.screenshot({ path: join(ARTIFACTS_DIR, 'invitation.png'), fullPage: true });
+      await p.screenshot({ path: join(ARTIFACTS_DIR, 'invitation.png'), fullPage: true });
       await p.getByLabel('Your name').fill(NEW_REVIEWER.name);
       await p.getByLabel('Choose a password').fill(NEW_REVIEWER.password);
       await p.getByLabel('Repeat the password').fill(NEW_REVIEWER.password);

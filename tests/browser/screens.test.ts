@@ -67,6 +67,41 @@ describeBrowser('foundation screens', () => {
     await p.close();
   });
 
+  it('signs in and opens a matter by keyboard alone, with a visible focus ring', async () => {
+    page = await browser.context.newPage();
+    screenshotOnFailure(() => page, 'keyboard');
+    const p = page;
+    await p.context().clearCookies();
+    await p.goto(`${quarry.baseUrl}/sign-in`);
+    // The e-mail field has focus on arrival.
+    const email = p.getByLabel('E-mail');
+    await expect
+      .poll(() => email.evaluate((element) => element === document.activeElement))
+      .toBe(true);
+    await p.keyboard.type('lead@quarry.example');
+    await p.keyboard.press('Tab');
+    await p.keyboard.type(PASSWORD);
+    await p.keyboard.press('Tab');
+    const focused = await p.evaluate(() => {
+      const element = document.activeElement as HTMLElement;
+      const style = getComputedStyle(element);
+      return { text: element.textContent, outline: `${style.outlineStyle} ${style.outlineWidth}` };
+    });
+    expect(focused).toEqual({ text: 'Sign in', outline: 'solid 2px' });
+    await p.keyboard.press('Enter');
+    await p.waitForURL(`${quarry.baseUrl}/matters`);
+    const link = p.getByRole('link', { name: 'Brackenfield Bakeries v Harrowgate Mills' });
+    await link.waitFor();
+    // Tab through the page until the matter's link holds focus, then open it.
+    for (let step = 0; step < 12; step += 1) {
+      await p.keyboard.press('Tab');
+      if (await link.evaluate((element) => element === document.activeElement)) break;
+    }
+    await p.keyboard.press('Enter');
+    await p.getByTestId('matter-home').waitFor();
+    await p.close();
+  });
+
   it('firm admin creates an account and a matter, then appoints a lead', async () => {
     page = await browser.context.newPage();
     screenshotOnFailure(() => page, 'admin');

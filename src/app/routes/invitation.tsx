@@ -127,32 +127,34 @@ function AcceptForm({
         </form>
       ) : (
         <>
-          <div
-            role="radiogroup"
-            aria-label="How to accept"
-            className="mt-5 grid grid-cols-2 gap-1 rounded-md border border-line bg-sunk p-1 text-sm"
-          >
+          <fieldset className="mt-5 grid grid-cols-2 gap-1 rounded-md border border-line bg-sunk p-1 text-sm">
+            <legend className="sr-only">How to accept</legend>
             {(['create', 'link'] as const).map((value) => (
-              <button
+              <label
                 key={value}
-                type="button"
-                role="radio"
-                aria-checked={mode === value}
-                onClick={() => {
-                  setMode(value);
-                  accept.reset();
-                  setLocalError(null);
-                }}
                 className={
-                  mode === value
-                    ? 'rounded bg-panel px-3 py-1.5 font-medium shadow-sm'
-                    : 'rounded px-3 py-1.5 text-ink-muted hover:text-ink'
+                  'cursor-pointer rounded px-3 py-1.5 text-center has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-focus ' +
+                  (mode === value
+                    ? 'bg-panel font-medium shadow-sm'
+                    : 'text-ink-muted hover:text-ink')
                 }
               >
+                <input
+                  type="radio"
+                  name="accept-mode"
+                  value={value}
+                  className="sr-only"
+                  checked={mode === value}
+                  onChange={() => {
+                    setMode(value);
+                    accept.reset();
+                    setLocalError(null);
+                  }}
+                />
                 {value === 'create' ? 'Create my account' : 'I already have an account'}
-              </button>
+              </label>
             ))}
-          </div>
+          </fieldset>
           <form
             onSubmit={submit}
             className="mt-4 space-y-4 rounded-lg border border-line bg-panel p-5"

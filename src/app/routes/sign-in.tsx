@@ -5,7 +5,7 @@ import { PublicLayout } from '../../components/layout/public-layout';
 import { Button, Notice, TextField } from '../../components/ui';
 import { meQueryOptions } from '../../features/auth/api/get-me';
 import { useSignIn } from '../../features/auth/api/sign-in';
-import { isApiError } from '../../lib/api-client';
+import { fieldErrorOf, isApiError } from '../../lib/api-client';
 import { safeNext } from '../../lib/safe-next';
 
 /** Someone already signed in skips the form. */
@@ -36,6 +36,8 @@ export function SignInRoute() {
   }
 
   const error = signIn.error;
+  const emailError = fieldErrorOf(error, 'email');
+  const passwordError = fieldErrorOf(error, 'password');
   return (
     <PublicLayout>
       <h1 className="text-xl font-semibold tracking-tight">Sign in to Quarry</h1>
@@ -47,7 +49,7 @@ export function SignInRoute() {
         className="mt-6 space-y-4 rounded-lg border border-line bg-panel p-5"
         noValidate
       >
-        {error ? (
+        {error && !emailError && !passwordError ? (
           <Notice
             tone="danger"
             title={
@@ -64,6 +66,7 @@ export function SignInRoute() {
           autoComplete="username"
           required
           autoFocus
+          error={emailError}
           value={email}
           onChange={(event) => setEmail(event.target.value)}
         />
@@ -73,6 +76,7 @@ export function SignInRoute() {
           name="password"
           autoComplete="current-password"
           required
+          error={passwordError}
           value={password}
           onChange={(event) => setPassword(event.target.value)}
         />
