@@ -1,10 +1,12 @@
 import type { Migration } from 'kysely';
 import * as initial from './2026_12_01_0001_initial';
 import * as indexBlobs from './2026_12_01_0100_index_blobs';
+import * as accountSetupTokens from './2026_12_02_0200_account_setup_tokens';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
 export const migrations: Record<string, Migration> = {
   '2026_12_01_0001_initial': initial,
   '2026_12_01_0100_index_blobs': indexBlobs,
+  '2026_12_02_0200_account_setup_tokens': accountSetupTokens,
 };

@@ -52,6 +52,65 @@ describe('firm admin', () => {
     expect(audit[0].actor_id).toBe(admin.id);
   });
 
+  test('without a temporary password, e-mails a one-time set-up link; the holder chooses the password', async () => {
+    const created = await adminAgent
+      .post('/api/admin/users')
+      .send({ name: 'Sam Setup', email: 'sam.setup@example.com' });
+    expect(created.status).toBe(201);
+    expect(created.body.setupLinkSent).toBe(true);
+    const mail = await t.mail.waitFor((m) => m.to.includes('sam.setup@example.com'));
+    expect(mail.subject).toBe('Your Quarry account');
+    const link = mail.links.find((l) => l.includes('/account-setup/')) as string;
+    expect(link).toMatch(new RegExp(`^${t.baseUrl}/account-setup/[A-Za-z0-9_-]{43}$`));
+    const token = link.split('/account-setup/')[1];
+    // Nobody can sign in before the password is chosen.
+    const early = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: 'sam.setup@example.com', password: token });
+    expect(early.status).toBe(401);
+    const preview = await t.agent().get(`/api/account-setup/${token}`);
+    expect(preview.body).toMatchObject({ email: 'sam.setup@example.com', name: 'Sam Setup' });
+    const weak = await t.agent().post(`/api/account-setup/${token}`).send({ password: 'short' });
+    expect(weak.status).toBe(400);
+    expect(weak.body.error.field).toBe('password');
+    const browser = t.agent();
+    const done = await browser
+      .post(`/api/account-setup/${token}`)
+      .send({ password: 'sam chooses this one' });
+    expect(done.status).toBe(200);
+    expect(done.body.user.email).toBe('sam.setup@example.com');
+    expect((await browser.get('/api/auth/me')).status).toBe(200);
+    const reused = await t
+      .agent()
+      .post(`/api/account-setup/${token}`)
+      .send({ password: 'someone else tries' });
+    expect(reused.status).toBe(409);
+    expect(reused.body.error.code).toBe('invitation_used');
+    await t.signIn(t.agent(), 'sam.setup@example.com', 'sam chooses this one');
+    const unknown = await t.agent().get(`/api/account-setup/${'B'.repeat(43)}`);
+    expect(unknown.status).toBe(404);
+  });
+
+  test('an expired set-up link is 410 invitation_expired', async () => {
+    const shortLived = await createTestApp({ config: { invitationTtlDays: 0.05 / 86_400 } });
+    try {
+      const boss = await shortLived.agentFor(await shortLived.buildUser({ isAdmin: true }));
+      await boss.post('/api/admin/users').send({ name: 'Late', email: 'late.setup@example.com' });
+      const mail = await shortLived.mail.waitFor((m) => m.to.includes('late.setup@example.com'));
+      const token = mail.links[0].split('/account-setup/')[1];
+      await new Promise((resolve) => setTimeout(resolve, 100));
+      const response = await shortLived
+        .agent()
+        .post(`/api/account-setup/${token}`)
+        .send({ password: 'too late for this' });
+      expect(response.status).toBe(410);
+      expect(response.body.error.code).toBe('invitation_expired');
+    } finally {
+      await shortLived.close();
+    }
+  });
+
   test('creates a matter with a lead by e-mail, and the lead (not the admin) can open it', async () => {
     const lead = await t.buildUser({ email: 'matter.lead@example.com' });
     const created = await adminAgent.post('/api/matters').send({

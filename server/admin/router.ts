@@ -6,6 +6,7 @@ import {
   type CreateUserResponse,
 } from '../../shared/schemas/admin';
 import { matterParams } from '../../shared/schemas/common';
+import { ownOrigin } from '../http/csrf';
 import { defineRoute } from '../http/route';
 import { appointLead, listAdminMatters } from '../matters/service';
 import { createUserByAdmin, listAdminUsers } from './service';
@@ -24,10 +25,9 @@ export const adminRoutes = [
     access: { firm: 'admin.accounts' },
     schemas: { body: createUserSchema },
     status: 201,
-    summary: 'Create an account with a temporary password (firm admin)',
-    handler: async ({ ctx, user, body, ip }): Promise<CreateUserResponse> => ({
-      user: await createUserByAdmin(ctx.db, body, { id: user.id, email: user.email, ip }),
-    }),
+    summary: 'Create an account with a temporary password or an e-mailed set-up link (firm admin)',
+    handler: ({ ctx, req, user, body, ip }): Promise<CreateUserResponse> =>
+      createUserByAdmin(ctx, body, { ...user, ip }, ctx.config.publicOrigin ?? ownOrigin(req)),
   }),
   defineRoute({
     method: 'get',

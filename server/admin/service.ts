@@ -1,4 +1,11 @@
-import type { AdminUser, AdminUsersResponse, CreateUserReq } from '../../shared/schemas/admin';
+import type {
+  AdminUser,
+  AdminUsersResponse,
+  CreateUserReq,
+  CreateUserResponse,
+} from '../../shared/schemas/admin';
+import { createAccountWithSetupLink } from '../account-setup/service';
+import type { AppContext } from '../context';
 import { recordAudit } from '../audit/record';
 import type { Db } from '../db/database';
 import { listUsersWithMatterCounts } from '../users/queries';
@@ -22,26 +29,36 @@ export async function listAdminUsers(db: Db): Promise<AdminUsersResponse> {
   return { users: (await listUsersWithMatterCounts(db)).map(toAdminUser) };
 }
 
+/**
+ * Creates an account with the admin's temporary password, or, without one, an account
+ * whose holder chooses the password through an e-mailed one-time set-up link.
+ */
 export async function createUserByAdmin(
-  db: Db,
+  ctx: AppContext,
   input: CreateUserReq,
-  actor: { id: string; email: string; ip: string | null },
-): Promise<AdminUser> {
-  const row = await createAccount(db, {
-    email: input.email,
-    name: input.name,
-    password: input.temporaryPassword,
-    isAdmin: input.isAdmin,
-  });
-  await recordAudit(db, {
+  actor: { id: string; email: string; name: string; ip: string | null },
+  origin: string,
+): Promise<CreateUserResponse> {
+  const userId = input.temporaryPassword
+    ? (
+        await createAccount(ctx.db, {
+          email: input.email,
+          name: input.name,
+          password: input.temporaryPassword,
+          isAdmin: input.isAdmin,
+        })
+      ).id
+    : (await createAccountWithSetupLink(ctx, input, actor, origin)).userId;
+  const setupLinkSent = !input.temporaryPassword;
+  await recordAudit(ctx.db, {
     actorId: actor.id,
     actorEmail: actor.email,
     ip: actor.ip,
     action: 'user.created',
     targetType: 'user',
-    targetId: row.id,
-    detail: { email: row.email, isAdmin: input.isAdmin },
+    targetId: userId,
+    detail: { email: input.email, isAdmin: input.isAdmin, setupLinkSent },
   });
-  const created = (await listUsersWithMatterCounts(db)).find((user) => user.id === row.id);
-  return toAdminUser(created as UserListRow);
+  const created = (await listUsersWithMatterCounts(ctx.db)).find((user) => user.id === userId);
+  return { user: toAdminUser(created as UserListRow), setupLinkSent };
 }

@@ -53,6 +53,16 @@ export interface InvitationsTable {
   revoked_at: string | null;
 }
 
+export interface AccountSetupTokensTable {
+  id: Generated<number>;
+  user_id: string;
+  token_hash: string;
+  created_by: string | null;
+  created_at: string;
+  expires_at: string;
+  used_at: string | null;
+}
+
 export interface CustodiansTable {
   id: Generated<number>;
   matter_id: number;
@@ -242,6 +252,7 @@ export interface Database {
   matters: MattersTable;
   matter_members: MatterMembersTable;
   invitations: InvitationsTable;
+  account_setup_tokens: AccountSetupTokensTable;
   custodians: CustodiansTable;
   upload_batches: UploadBatchesTable;
   documents: DocumentsTable;

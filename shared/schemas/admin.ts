@@ -1,11 +1,16 @@
 import { z } from 'zod';
 import { emailSchema, newPasswordSchema, personNameSchema, text, type PersonRef } from './common';
 
-/** POST /api/admin/users: a new account with a temporary password the admin hands over. */
+/**
+ * POST /api/admin/users: a new account, either with a temporary password the admin hands
+ * over, or (temporaryPassword omitted) with a one-time set-up link e-mailed to the person
+ * (`${origin}/account-setup/<token>`, see shared/schemas/auth.ts), valid for the
+ * invitation lifetime (7 days by default).
+ */
 export const createUserSchema = z.object({
   name: personNameSchema,
   email: emailSchema,
-  temporaryPassword: newPasswordSchema,
+  temporaryPassword: newPasswordSchema.optional(),
   isAdmin: z.boolean({ error: 'must be true or false' }).default(false),
 });
 export type CreateUserReq = z.infer<typeof createUserSchema>;
@@ -33,6 +38,8 @@ export interface AdminUsersResponse {
 
 export interface CreateUserResponse {
   user: AdminUser;
+  /** True when a set-up link was e-mailed (no temporary password given). */
+  setupLinkSent: boolean;
 }
 
 export interface AdminMatter {

@@ -39,3 +39,20 @@ export interface MeResponse {
   firmPermissions: FirmPermission[];
   matters: MyMatter[];
 }
+
+/** The token of an account set-up link: 32 random bytes in base64url (43 characters). */
+export const accountSetupParams = z.object({
+  token: text().regex(/^[A-Za-z0-9_-]{43}$/, 'is not a valid set-up link'),
+});
+export type AccountSetupParams = z.infer<typeof accountSetupParams>;
+
+/** GET /api/account-setup/:token (public): whose account the link sets up. */
+export interface AccountSetupPreviewResponse {
+  email: string;
+  name: string;
+  expiresAt: string;
+}
+
+/** POST /api/account-setup/:token: choose the password; signs the browser in (MeResponse). */
+export const completeAccountSetupSchema = z.object({ password: newPasswordSchema });
+export type CompleteAccountSetupReq = z.infer<typeof completeAccountSetupSchema>;
