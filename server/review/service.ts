@@ -95,18 +95,16 @@ export async function readReview(
   const q = query.q?.trim() ?? '';
   const queryTerms = new Set(analyze(q));
   let concept = new Set<string>();
-  if (q && query.mode !== 'keyword') {
-    const space = await ctx.index.getSpace(matterId);
-    if (space) {
-      const { vector } = space.queryVector(q);
-      if (vector.some((v) => v !== 0)) {
-        concept = new Set(
-          nearestTerms(space, vector, NEAREST_TERMS + queryTerms.size)
-            .filter((t) => !queryTerms.has(t.term) && t.similarity > 0)
-            .slice(0, NEAREST_TERMS)
-            .map((t) => t.term),
-        );
-      }
+  const space = q && query.mode !== 'keyword' ? await ctx.index.getSpace(matterId) : null;
+  if (space) {
+    const { vector } = space.queryVector(q);
+    if (vector.some((v) => v !== 0)) {
+      concept = new Set(
+        nearestTerms(space, vector, NEAREST_TERMS + queryTerms.size)
+          .filter((t) => !queryTerms.has(t.term) && t.similarity > 0)
+          .slice(0, NEAREST_TERMS)
+          .map((t) => t.term),
+      );
     }
   }
   const spans = termSpans(body, REVIEW_TEXT_MAX_CHARS);
@@ -155,7 +153,7 @@ export async function readReview(
     },
     text: { title: text?.title ?? '', body, truncated },
     highlights,
-    conceptTerms: [...concept].map((t) => surfaceOf(t, surfaces)),
+    conceptTerms: [...concept].map((t) => surfaceOf(t, surfaces, space)),
     codes: codes.get(doc.id) ?? [],
     notes: notes.map(noteToApi),
     privilege: privilege ? privilegeToApi(privilege) : null,

@@ -136,7 +136,18 @@ export function collectSurfaces(
   }
 }
 
-export function surfaceOf(term: string, surfaces: Map<string, Map<string, number>>): string {
+/**
+ * A term as a word: the index's own label (its most frequent surface form in the
+ * matter) when the space has the term, else the commonest form in the given texts.
+ */
+export function surfaceOf(
+  term: string,
+  surfaces: Map<string, Map<string, number>>,
+  space?: { termId(term: string): number | undefined; labels?: readonly string[] } | null,
+): string {
+  const id = space?.termId(term);
+  const label = id !== undefined ? space?.labels?.[id] : undefined;
+  if (label) return label;
   const forms = surfaces.get(term);
   if (!forms) return term;
   let best = term;

@@ -101,7 +101,7 @@ async function explainPage(
       return { id, i, body, spans, contributions };
     });
   const nearestQueryTerms = ranked.nearest.map((t) => ({
-    term: surfaceOf(t.term, surfaces),
+    term: surfaceOf(t.term, surfaces, space),
     similarity: t.similarity,
   }));
   return prepared.map(({ id, i, body, spans, contributions }) => {
@@ -124,7 +124,7 @@ async function explainPage(
       snippet: buildSnippet(body, spans, marks),
       why: {
         topTerms: contributions.map((c) => ({
-          term: surfaceOf(c.term, surfaces),
+          term: surfaceOf(c.term, surfaces, space),
           weight: c.weight,
         })),
         nearestQueryTerms,
