@@ -13,6 +13,7 @@
 import { analyze, ANALYZER_VERSION } from '../text/analyzer';
 import { buildTermDocumentMatrix } from './term-document';
 import type { CsrMatrix } from '../sparse/csr';
+import { allocateRows } from '../search/simd-dot';
 import { applyWeights, globalWeights, localWeight, WEIGHTINGS, type Weighting } from './weighting';
 import {
   conditionNumber,
@@ -203,7 +204,9 @@ export class ConceptSpace {
       this.idIndex.set(id, index);
     });
     this.count = this.ids.length;
-    this.vectors = data.docVectors;
+    // The document matrix lives where the SIMD cosine kernel can read it.
+    this.vectors = allocateRows(this.count, k);
+    this.vectors.set(data.docVectors);
     this.folded = data.foldedIn.length === this.count ? data.foldedIn : new Uint8Array(this.count);
   }
 
@@ -504,7 +507,7 @@ export class ConceptSpace {
       index = this.count;
       if ((index + 1) * this.k > this.vectors.length) {
         const capacity = Math.max(16, Math.ceil((this.count + 1) * 1.5));
-        const grown = new Float32Array(capacity * this.k);
+        const grown = allocateRows(capacity, this.k);
         grown.set(this.vectors.subarray(0, this.count * this.k));
         this.vectors = grown;
         const flags = new Uint8Array(capacity);

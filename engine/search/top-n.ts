@@ -1,5 +1,9 @@
 // Cosine top-N over row-major Float32 rows: one pass, a size-N min-heap (partial
 // selection, O(n log N)), rows pre-normalised through a cached 1/||row|| array.
+// Rows allocated by simd-dot.ts (the concept space's document matrix) get their dot
+// products from a WebAssembly SIMD kernel (Float32 accumulation); others use the
+// scalar loop (Float64 accumulation).
+import { simdDots } from './simd-dot';
 
 export interface TopN {
   /** Row indices, best first (ties: lower index first). */
@@ -104,6 +108,19 @@ export function topCosine(
   const heap = new MinHeap(Math.min(limit, count));
   const allow = options.allow;
   const exclude = options.exclude ?? -1;
+  // A prefix of the axes is the full dot product with the query zero beyond `dims`.
+  const padded = dims === stride ? q : new Float64Array(stride);
+  if (padded !== q) padded.set(q);
+  const fast = simdDots(rows, stride, count, padded);
+  if (fast) {
+    for (let j = 0; j < count; j++) {
+      if (allow !== undefined && allow[j] === 0) continue;
+      if (j === exclude) continue;
+      const score = fast[j] * invNorms[j];
+      if (score > heap.minScore || heap.size < heap.capacity) heap.offer(score, j);
+    }
+    return heap.sorted();
+  }
   const tail = dims & 3;
   const body = dims - tail;
   for (let j = 0; j < count; j++) {

@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { mulberry32 } from '../linalg/random';
+import { allocateRows } from './simd-dot';
+import { topCosine } from './top-n';
+
+// Checked against a plain full sort of exact (Float64) cosines: common practice for
+// testing a partial-selection top-N.
+function reference(
+  rows: Float32Array,
+  k: number,
+  n: number,
+  q: Float64Array,
+  limit: number,
+  dims = k,
+) {
+  const scores: { j: number; s: number }[] = [];
+  let qn = 0;
+  for (let c = 0; c < dims; c++) qn += q[c] * q[c];
+  for (let j = 0; j < n; j++) {
+    let dot = 0;
+    let dn = 0;
+    for (let c = 0; c < dims; c++) {
+      dot += q[c] * rows[j * k + c];
+      dn += rows[j * k + c] ** 2;
+    }
+    scores.push({ j, s: dn > 0 ? dot / Math.sqrt(qn * dn) : 0 });
+  }
+  return scores.sort((a, b) => b.s - a.s || a.j - b.j).slice(0, limit);
+}
+
+function inverseNorms(rows: Float32Array, k: number, n: number, dims = k) {
+  const inv = new Float32Array(n);
+  for (let j = 0; j < n; j++) {
+    let s = 0;
+    for (let c = 0; c < dims; c++) s += rows[j * k + c] ** 2;
+    inv[j] = s > 0 ? 1 / Math.sqrt(s) : 0;
+  }
+  return inv;
+}
+
+describe('topCosine', () => {
+  const n = 2000;
+  const k = 12;
+  const rand = mulberry32(11);
+  for (const backing of ['scalar', 'simd'] as const) {
+    const rows = backing === 'simd' ? allocateRows(n, k) : new Float32Array(n * k);
+    for (let i = 0; i < n * k; i++) rows[i] = rand() - 0.5;
+    for (let c = 0; c < k; c++) rows[5 * k + c] = 0; // a zero row scores 0
+    const q = Float64Array.from({ length: k }, () => rand() - 0.5);
+
+    it(`matches a full sort (${backing})`, () => {
+      const top = topCosine(rows, k, n, inverseNorms(rows, k, n), q, 25);
+      const ref = reference(rows, k, n, q, 25);
+      expect(Array.from(top.indices)).toEqual(ref.map((r) => r.j));
+      top.scores.forEach((s, r) => expect(s).toBeCloseTo(ref[r].s, 5));
+    });
+
+    it(`over a prefix of the axes (${backing})`, () => {
+      const top = topCosine(rows, k, n, inverseNorms(rows, k, n, 8), q, 10, { dims: 8 });
+      expect(Array.from(top.indices)).toEqual(reference(rows, k, n, q, 10, 8).map((r) => r.j));
+    });
+
+    it(`honours the candidate mask and the excluded row (${backing})`, () => {
+      const allow = new Uint8Array(n);
+      for (let j = 0; j < n; j += 7) allow[j] = 1;
+      const best = reference(rows, k, n, q, 1)[0].j;
+      const top = topCosine(rows, k, n, inverseNorms(rows, k, n), q, 50, { allow, exclude: 0 });
+      expect(top.indices.length).toBe(50);
+      for (const j of top.indices) {
+        expect(allow[j]).toBe(1);
+        expect(j).not.toBe(0);
+      }
+      const all = topCosine(rows, k, n, inverseNorms(rows, k, n), q, 1, { exclude: best });
+      expect(all.indices[0]).not.toBe(best);
+    });
+  }
+
+  it('returns nothing for a zero query', () => {
+    const rows = allocateRows(3, 4);
+    expect(topCosine(rows, 4, 3, new Float32Array(3), new Float64Array(4), 5).indices.length).toBe(
+      0,
+    );
+  });
+});
