@@ -191,6 +191,12 @@ describeBrowser('foundation screens', () => {
     const actions = await p.getByTestId('audit-row').locator('td:nth-child(3)').allInnerTexts();
     expect(actions.indexOf('Revoked access')).toBeLessThan(actions.indexOf('Changed a role'));
 
+    // The log names whose role changed, not only the change.
+    await p
+      .getByTestId('audit-row')
+      .filter({ hasText: 'Changed a role' })
+      .getByText('Pia Paralegal')
+      .waitFor();
     await p.getByTestId('audit-filter-action').selectOption('member.role_changed');
     await expect
       .poll(

@@ -18,7 +18,9 @@ import {
   Th,
   Tr,
 } from '../../../components/ui';
+import { useMembers } from '../../../features/members/api/get-members';
 import {
+  type AuditEvent,
   type AuditFilters,
   auditEventsQueryOptions,
   useAuditEvents,
@@ -71,6 +73,18 @@ function ActivityLog({ matterId }: { matterId: number }) {
   const [params, setParams] = useSearchParams();
   const filters = filtersFrom(params);
   const events = useAuditEvents(matterId, filters);
+  // Names for the people events point at (role changes, revocations), from the log's
+  // actors and the current members; a former member shows by e-mail or id.
+  const members = useMembers(matterId);
+  const people = new Map<string, string>();
+  for (const actor of events.data?.actors ?? []) {
+    people.set(actor.id, actor.name ?? actor.email ?? actor.id);
+  }
+  for (const member of members.data?.members ?? []) people.set(member.userId, member.name);
+  const targetOf = (event: AuditEvent): string | null => {
+    if (event.targetType !== 'user' || !event.targetId) return null;
+    return people.get(event.targetId) ?? (event.detail.email as string | undefined) ?? null;
+  };
   // Cursors of the newer pages already seen, so "Newer" can step back.
   const [newerCursors, setNewerCursors] = useState<(number | undefined)[]>([]);
 
@@ -162,7 +176,9 @@ function ActivityLog({ matterId }: { matterId: number }) {
                         <span title={event.action}>{actionLabel(event.action)}</span>
                       </Td>
                       <Td className="text-[13px] text-ink-muted">
-                        {describeDetail(event.detail) || '—'}
+                        {[targetOf(event), describeDetail(event.detail)]
+                          .filter(Boolean)
+                          .join(' · ') || '—'}
                       </Td>
                     </Tr>
                   ))}
