@@ -251,7 +251,7 @@ function blockKrylovRange(
   const place = (offset: number) => {
     for (let i = 0; i < m; i++) basis.set(w.subarray(i * b, (i + 1) * b), i * K + offset);
   };
-  const block = new Float64Array(m * b);
+  const block = allocate(m * b); // shared when the operator is two-threaded
   place(0);
   const totalSteps = 2 * blocks + 1;
   let step = 1;
