@@ -1,0 +1,207 @@
+// CSV exports over HTTP, parsed back with csv-parse and compared with the database.
+// CSV rules: RFC 4180 (CRLF record ends; a field holding a comma, quote or line break is
+// quoted, with quotes doubled). The byte-order mark EF BB BF is the UTF-8 encoding of
+// U+FEFF (Unicode Standard, section 23.8). Formula neutralising follows OWASP "CSV Injection".
+import { parse } from 'csv-parse/sync';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { PRIVILEGE_LOG_CSV_COLUMNS, RESULTS_CSV_COLUMNS } from '../../shared/schemas/exports';
+import { createTestApp, type Agent, type TestApp, type TestUser } from '../../tests/helpers';
+import { buildMemoMatter, type MemoMatter } from '../search/test-fixture';
+
+let t: TestApp;
+let m: MemoMatter;
+let base: string;
+let lead: Agent;
+let attorney: Agent;
+let reviewer: TestUser;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  m = await buildMemoMatter(t);
+  base = `/api/matters/${m.matter.id}`;
+  lead = await t.agentFor(m.matter.lead);
+  const att = await t.buildUser();
+  await t.addMember(m.matter, att, 'attorney');
+  attorney = await t.agentFor(att);
+  reviewer = await t.buildUser();
+  await t.addMember(m.matter, reviewer, 'reviewer');
+});
+afterAll(() => t?.close());
+
+/** Downloads as raw bytes (supertest would otherwise decode and hide the BOM). */
+async function download(agent: Agent, path: string, query: Record<string, string> = {}) {
+  const res = await agent
+    .get(path)
+    .query(query)
+    .buffer(true)
+    .parse((response, callback) => {
+      const chunks: Buffer[] = [];
+      response.on('data', (c: Buffer) => chunks.push(c));
+      response.on('end', () => callback(null, Buffer.concat(chunks)));
+    });
+  return { res, bytes: res.body as Buffer };
+}
+
+function parseCsv(bytes: Buffer): string[][] {
+  return parse(bytes, { bom: true, relax_column_count: false }) as string[][];
+}
+
+describe('results.csv', () => {
+  test('the whole result set, in rank order, matching the database and the search API', async () => {
+    const codes = (await lead.get(`${base}/codes`)).body.codes as { id: number; name: string }[];
+    const hot = codes.find((c) => c.name === 'Hot')!.id;
+    const responsive = codes.find((c) => c.name === 'Responsive')!.id;
+    await lead.put(`${base}/documents/${m.ids.c1}/codes`).send({ codeIds: [responsive, hot] });
+    const filters = {
+      custodianIds: [m.custodians['Avery Example'], m.custodians['Blake Example']],
+    };
+    const { res, bytes } = await download(attorney, `${base}/exports/results.csv`, {
+      query: 'human computer interaction',
+      mode: 'concept',
+      filters: JSON.stringify(filters),
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
+    expect(res.headers['content-disposition']).toMatch(
+      /^attachment; filename="[A-Z0-9]+-search-results-\d{4}-\d{2}-\d{2}\.csv"$/,
+    );
+    expect([...bytes.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
+    const text = bytes.subarray(3).toString('utf8');
+    expect(text.split('\r\n').length).toBeGreaterThan(2);
+    expect(text.replaceAll('\r\n', '')).not.toMatch(/\n/);
+
+    const [header, ...rows] = parseCsv(bytes);
+    expect(header).toEqual([...RESULTS_CSV_COLUMNS]);
+    // Same set and order as the search API's full result set (all pages).
+    const api = await attorney
+      .post(`${base}/search`)
+      .send({ query: 'human computer interaction', mode: 'concept', filters, limit: 500 });
+    expect(rows.map((r) => r[1])).toEqual(
+      api.body.hits.map((h: { controlNumber: string }) => h.controlNumber),
+    );
+    expect(rows).toHaveLength(api.body.total);
+    const dbRows = await t.ctx.db
+      .selectFrom('documents as d')
+      .leftJoin('custodians as c', 'c.id', 'd.custodian_id')
+      .select([
+        'd.id',
+        'd.control_number',
+        'd.title',
+        'd.sent_at',
+        'd.doc_type',
+        'c.name as custodian',
+      ])
+      .where('d.matter_id', '=', m.matter.id)
+      .execute();
+    const byControl = new Map(dbRows.map((r) => [r.control_number, r]));
+    rows.forEach((row, i) => {
+      const d = byControl.get(row[1])!;
+      expect(row[0]).toBe(String(i + 1));
+      expect(row.slice(2, 6)).toEqual([
+        d.title,
+        d.custodian,
+        d.sent_at?.slice(0, 10) ?? '',
+        d.doc_type,
+      ]);
+      expect(Number(row[6])).toBeCloseTo(api.body.hits[i].score, 4);
+    });
+    expect(rows.find((r) => r[1] === m.controlNumbers[m.ids.c1])![7]).toBe('Responsive; Hot');
+    const audit = await t.ctx.db
+      .selectFrom('audit_events')
+      .select('detail')
+      .where('action', '=', 'export.results')
+      .execute();
+    expect(audit).toHaveLength(1);
+    expect(JSON.parse(audit[0].detail)).toMatchObject({
+      query: 'human computer interaction',
+      mode: 'concept',
+      rows: rows.length,
+    });
+  });
+
+  test('sorted exports and bad filters', async () => {
+    const { bytes } = await download(lead, `${base}/exports/results.csv`, {
+      query: 'graph trees',
+      mode: 'keyword',
+      sort: 'controlNumber',
+    });
+    const controls = parseCsv(bytes)
+      .slice(1)
+      .map((r) => r[1]);
+    expect(controls).toEqual([...controls].sort());
+    const bad = await lead
+      .get(`${base}/exports/results.csv`)
+      .query({ query: 'x', filters: '{not json' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.field).toBe('filters');
+    const missing = await lead.get(`${base}/exports/results.csv`);
+    expect(missing.status).toBe(400);
+    expect(missing.body.error.field).toBe('query');
+  });
+
+  test('reviewers and paralegals may not export (exports.create)', async () => {
+    const res = await (await t.agentFor(reviewer)).get(`${base}/exports/privilege-log.csv`);
+    expect(res.status).toBe(403);
+  });
+});
+
+describe('privilege-log.csv', () => {
+  test('documents coded Privileged with their basis and description, quoted per RFC 4180', async () => {
+    const codes = (await lead.get(`${base}/codes`)).body.codes as { id: number; name: string }[];
+    const privileged = codes.find((c) => c.name === 'Privileged')!.id;
+    await lead
+      .post(`${base}/codes/bulk`)
+      .send({ documentIds: [m.ids.c5, m.ids.c3], add: [privileged] });
+    const tricky = 'Advice on "response time", line one\nline two';
+    await lead
+      .put(`${base}/documents/${m.ids.c3}/privilege`)
+      .send({ basis: 'Attorney-client', description: tricky });
+    await lead
+      .put(`${base}/documents/${m.ids.c5}/privilege`)
+      .send({ basis: 'Work product', description: '=HYPERLINK("x")' });
+    const { res, bytes } = await download(lead, `${base}/exports/privilege-log.csv`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-disposition']).toMatch(
+      /attachment; filename=".+-privilege-log-\d{4}-\d{2}-\d{2}\.csv"/,
+    );
+    const raw = bytes.subarray(3).toString('utf8');
+    // RFC 4180 section 2, rules 6 and 7: the field is quoted and its quotes doubled.
+    expect(raw).toContain('"Advice on ""response time"", line one\nline two"');
+    const [header, ...rows] = parseCsv(bytes);
+    expect(header).toEqual([...PRIVILEGE_LOG_CSV_COLUMNS]);
+    const expected = await t.ctx.db
+      .selectFrom('documents as d')
+      .innerJoin('privilege_entries as p', 'p.document_id', 'd.id')
+      .select([
+        'd.control_number',
+        'd.sent_at',
+        'd.author',
+        'd.recipients',
+        'd.doc_type',
+        'p.basis',
+        'p.description',
+      ])
+      .where('d.id', 'in', [m.ids.c3, m.ids.c5])
+      .orderBy('d.control_number')
+      .execute();
+    expect(rows).toEqual(
+      expected.map((d) => [
+        d.control_number,
+        d.sent_at!.slice(0, 10),
+        d.author,
+        d.recipients,
+        d.doc_type,
+        d.basis,
+        d.description.startsWith('=') ? `'${d.description}` : d.description,
+      ]),
+    );
+    expect(rows[1][6]).toBe(`'=HYPERLINK("x")`);
+    const audit = await t.ctx.db
+      .selectFrom('audit_events')
+      .select(['detail', 'actor_id'])
+      .where('action', '=', 'export.privilege_log')
+      .execute();
+    expect(audit).toHaveLength(1);
+    expect(JSON.parse(audit[0].detail).rows).toBe(2);
+  });
+});
