@@ -16,9 +16,8 @@ export interface SelectProps extends SelectHTMLAttributes<HTMLSelectElement> {
   compact?: boolean;
 }
 
-// A quiet chevron drawn in the ink-muted colour, so the native menu keeps its keyboard behaviour.
-const chevron =
-  "bg-[url(\"data:image/svg+xml,%3Csvg xmlns='http://www.w3.org/2000/svg' width='10' height='6' viewBox='0 0 10 6'%3E%3Cpath d='M1 1l4 4 4-4' fill='none' stroke='%23545b63' stroke-width='1.5'/%3E%3C/svg%3E\")] bg-[length:10px_6px] bg-[position:right_0.6rem_center] bg-no-repeat appearance-none";
+// The arrow is the select-chevron utility in styles.css.
+const chevron = 'select-chevron';
 
 export const Select = forwardRef<HTMLSelectElement, SelectProps>(function Select(
   { label, options, error, compact = false, className, id, ...rest },
