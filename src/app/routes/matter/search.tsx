@@ -24,7 +24,7 @@ import { HighlightLegend } from '../../../features/search/components/highlight';
 import { QueryForm } from '../../../features/search/components/query-form';
 import { RecentSearchesPanel } from '../../../features/search/components/recent-searches-panel';
 import { ResultsPager } from '../../../features/search/components/results-pager';
-import { ResultsTable } from '../../../features/search/components/results-table';
+import { RefineBar, ResultsTable } from '../../../features/search/components/results-table';
 import { SearchFiltersBar } from '../../../features/search/components/search-filters';
 import {
   MODE_LABELS,
@@ -124,8 +124,8 @@ function SearchPage({ matterId }: { matterId: number }) {
         }
       />
       <ReviewCaution className="mb-4" compact />
-      <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_17rem]">
-        <div className="min-w-0 space-y-3">
+      <div className="space-y-3">
+        <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_17rem]">
           <section
             className="space-y-3 rounded-md border border-line bg-panel p-3"
             aria-label="Query and filters"
@@ -153,7 +153,20 @@ function SearchPage({ matterId }: { matterId: number }) {
               />
             </div>
           </section>
+          <aside className="space-y-3" aria-label="Saved and recent searches">
+            <SavedSearchesPanel
+              matterId={matterId}
+              current={
+                plainQuery
+                  ? { query: plainQuery.query, mode: plainQuery.mode, filters: plainQuery.filters }
+                  : null
+              }
+            />
+            <RecentSearchesPanel matterId={matterId} />
+          </aside>
+        </div>
 
+        <div className="min-w-0">
           {!request ? (
             <EmptyState title="Search the matter">
               Type a word, a sentence or a paragraph. Concept search also finds documents that say
@@ -192,6 +205,7 @@ function SearchPage({ matterId }: { matterId: number }) {
                 <HighlightLegend />
               </div>
               {data.notice ? <Notice tone="info">{data.notice}</Notice> : null}
+              {!similar ? <RefineBar hits={data.hits} onRefine={refine} /> : null}
               {data.unknownTerms.length > 0 && !similar ? (
                 <p className="text-xs text-ink-muted">
                   Not in this matter's vocabulary: {data.unknownTerms.join(', ')}
@@ -229,7 +243,6 @@ function SearchPage({ matterId }: { matterId: number }) {
                         state.pageIndex * state.pageSize + index,
                       )
                     }
-                    onRefine={similar ? undefined : refine}
                   />
                   <ResultsPager
                     pageIndex={state.pageIndex}
@@ -243,17 +256,6 @@ function SearchPage({ matterId }: { matterId: number }) {
             </div>
           ) : null}
         </div>
-        <aside className="space-y-4" aria-label="Saved and recent searches">
-          <SavedSearchesPanel
-            matterId={matterId}
-            current={
-              plainQuery
-                ? { query: plainQuery.query, mode: plainQuery.mode, filters: plainQuery.filters }
-                : null
-            }
-          />
-          <RecentSearchesPanel matterId={matterId} />
-        </aside>
       </div>
     </div>
   );

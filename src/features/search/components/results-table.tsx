@@ -61,7 +61,6 @@ export function ResultsTable({
   onRowSelectionChange,
   canSelect,
   hrefFor,
-  onRefine,
 }: {
   hits: SearchHit[];
   total: number;
@@ -74,8 +73,6 @@ export function ResultsTable({
   canSelect: boolean;
   /** The viewer's address for the hit at `index` on this page. */
   hrefFor: (hit: SearchHit, index: number) => string;
-  /** Appends a related term to the query and runs it. */
-  onRefine?: (term: string) => void;
 }) {
   const sorting = toSorting(sort);
   const table = useTable({
@@ -237,7 +234,7 @@ export function ResultsTable({
                     </span>
                   ) : null}
                   <Snippet segments={hit.snippet} className="mt-1 line-clamp-3" />
-                  <WhyMatched hit={hit} onRefine={onRefine} />
+                  <WhyMatched hit={hit} />
                 </td>
                 <td
                   className="truncate px-2.5 py-2 text-ink-muted"
@@ -274,40 +271,55 @@ export function ResultsTable({
   );
 }
 
-/** The terms carrying the hit's score, and the query's concept neighbours as refinements. */
-function WhyMatched({ hit, onRefine }: { hit: SearchHit; onRefine?: (term: string) => void }) {
-  const { topTerms, nearestQueryTerms } = hit.why;
-  if (topTerms.length === 0 && nearestQueryTerms.length === 0) return null;
+/** The terms carrying most of the hit's score. */
+function WhyMatched({ hit }: { hit: SearchHit }) {
+  const { topTerms } = hit.why;
+  if (topTerms.length === 0) return null;
   return (
-    <div className="mt-1.5 space-y-1 text-xs text-ink-muted" data-testid="why-matched">
-      {topTerms.length > 0 ? (
-        <p>
-          <span className="font-semibold text-ink">Why it matched:</span>{' '}
-          {topTerms.slice(0, 6).map((t, i) => (
-            <span key={t.term} title={`weight ${t.weight.toFixed(3)}`}>
-              {i > 0 ? ', ' : ''}
-              {t.term}
-            </span>
-          ))}
-        </p>
-      ) : null}
-      {nearestQueryTerms.length > 0 && onRefine ? (
-        <p className="flex flex-wrap items-center gap-1">
-          <span className="font-semibold text-ink">Near your query:</span>
-          {nearestQueryTerms.slice(0, 6).map((t) => (
-            <button
-              key={t.term}
-              type="button"
-              onClick={() => onRefine(t.term)}
-              className="rounded border border-line-strong bg-panel px-1.5 leading-5 text-accent-strong hover:bg-accent-soft"
-              title={`Add “${t.term}” to the query and run it (similarity ${t.similarity.toFixed(2)})`}
-              data-testid="refine-term"
-            >
-              + {t.term}
-            </button>
-          ))}
-        </p>
-      ) : null}
-    </div>
+    <p className="mt-1 text-xs text-ink-muted" data-testid="why-matched">
+      <span className="font-semibold text-ink">Why it matched:</span>{' '}
+      {topTerms.slice(0, 6).map((t, i) => (
+        <span key={t.term} title={`weight ${t.weight.toFixed(3)}`}>
+          {i > 0 ? ', ' : ''}
+          {t.term}
+        </span>
+      ))}
+    </p>
+  );
+}
+
+/**
+ * The query's nearest terms in the concept space, gathered over the page's hits, each a
+ * one-click refinement (added to the query, which runs again).
+ */
+export function RefineBar({
+  hits,
+  onRefine,
+}: {
+  hits: SearchHit[];
+  onRefine: (term: string) => void;
+}) {
+  const best = new Map<string, number>();
+  for (const hit of hits)
+    for (const t of hit.why.nearestQueryTerms)
+      best.set(t.term, Math.max(best.get(t.term) ?? -1, t.similarity));
+  const terms = [...best].sort((a, b) => b[1] - a[1]).slice(0, 10);
+  if (terms.length === 0) return null;
+  return (
+    <p className="flex flex-wrap items-center gap-1.5 text-[13px]" data-testid="refine-bar">
+      <span className="font-semibold text-ink">Near your query in the concept space:</span>
+      {terms.map(([term, similarity]) => (
+        <button
+          key={term}
+          type="button"
+          onClick={() => onRefine(term)}
+          className="rounded border border-line-strong bg-panel px-1.5 leading-6 text-accent-strong hover:bg-accent-soft"
+          title={`Add “${term}” to the query and run it again (similarity ${similarity.toFixed(2)})`}
+          data-testid="refine-term"
+        >
+          + {term}
+        </button>
+      ))}
+    </p>
   );
 }
