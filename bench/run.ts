@@ -28,7 +28,13 @@ import { mulberry32 } from '../engine/linalg/random';
 const root = join(import.meta.dirname, '..');
 const outDir = join(root, 'bench', 'out');
 const quick = process.argv.includes('--quick');
-const sizes = quick ? [10_000] : [10_000, 50_000, 100_000];
+const sizesArg = process.argv.find((a) => a.startsWith('--sizes='));
+// --sizes=10000,50000 runs only those sizes (for slow or shared machines).
+const sizes = sizesArg
+  ? sizesArg.slice('--sizes='.length).split(',').map(Number)
+  : quick
+    ? [10_000]
+    : [10_000, 50_000, 100_000];
 const ks = [100, 300];
 const QUERIES = 200;
 
