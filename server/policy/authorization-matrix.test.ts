@@ -196,7 +196,8 @@ describe.each(
       ] as const,
   ),
 )('%s', (_name, spec) => {
-  test.each(CALLERS)('as %s', async (caller) => {
+  // The callers of one route run concurrently (independent sessions); routes run in turn.
+  test.concurrent.for(CALLERS)('as %s', async (caller, { expect }) => {
     const expected = expectedOutcome(spec.access, caller);
     const response = await callAs(caller, spec);
     const detail = `${caller} -> ${response.status} ${JSON.stringify(response.body)}`;
