@@ -110,7 +110,14 @@ export function allocateRows(capacityRows: number, k: number): Float32Array {
   const rows = Math.ceil((k * 4) / 16) * 16;
   const scores = rows + capacityRows * k * 4;
   const bytes = scores + capacityRows * 4;
-  const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE) });
+  // wasm32 memory tops out at 4 GiB (V8 may allow less): very large matrices stay scalar.
+  if (bytes > 2 ** 31) return new Float32Array(capacityRows * k);
+  let memory: WebAssembly.Memory;
+  try {
+    memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE) });
+  } catch {
+    return new Float32Array(capacityRows * k);
+  }
   const instance = new WebAssembly.Instance(mod, { env: { mem: memory } });
   const view = new Float32Array(memory.buffer, rows, capacityRows * k);
   backings.set(memory.buffer, {
