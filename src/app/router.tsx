@@ -9,6 +9,13 @@ import * as invitation from './routes/invitation';
 import * as matterAccess from './routes/matter/access';
 import * as matterActivity from './routes/matter/activity';
 import * as matterCodes from './routes/matter/codes';
+import * as matterConcepts from './routes/matter/concepts';
+import * as matterConceptsDimensions from './routes/matter/concepts-dimensions';
+import * as matterConceptsGroups from './routes/matter/concepts-groups';
+import * as matterConceptsHealth from './routes/matter/concepts-health';
+import * as matterConceptsMap from './routes/matter/concepts-map';
+import * as matterConceptsSpectrum from './routes/matter/concepts-spectrum';
+import * as matterConceptsTerms from './routes/matter/concepts-terms';
 import * as matterDocument from './routes/matter/documents-item';
 import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
@@ -78,6 +85,39 @@ export function createAppRouter(queryClient: QueryClient) {
               path: 'review/:docId',
               loader: matterReview.clientLoader(queryClient),
               Component: matterReview.ReviewRoute,
+            },
+            {
+              path: 'concepts',
+              Component: matterConcepts.ConceptsLayout,
+              children: [
+                { index: true, Component: matterConcepts.ConceptsIndexRoute },
+                {
+                  path: 'spectrum',
+                  loader: matterConceptsSpectrum.clientLoader(queryClient),
+                  Component: matterConceptsSpectrum.ConceptsSpectrumRoute,
+                },
+                {
+                  path: 'dimensions',
+                  loader: matterConceptsDimensions.clientLoader(queryClient),
+                  Component: matterConceptsDimensions.ConceptsDimensionsRoute,
+                },
+                { path: 'terms', Component: matterConceptsTerms.ConceptsTermsRoute },
+                {
+                  path: 'map',
+                  loader: matterConceptsMap.clientLoader(queryClient),
+                  Component: matterConceptsMap.ConceptsMapRoute,
+                },
+                {
+                  path: 'groups',
+                  loader: matterConceptsGroups.clientLoader(queryClient),
+                  Component: matterConceptsGroups.ConceptsGroupsRoute,
+                },
+                {
+                  path: 'health',
+                  loader: matterConceptsHealth.clientLoader(queryClient),
+                  Component: matterConceptsHealth.ConceptsHealthRoute,
+                },
+              ],
             },
             {
               path: 'codes',

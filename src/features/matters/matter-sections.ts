@@ -33,6 +33,15 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     summary: 'Concept, keyword and hybrid search; review, code and export the results.',
   },
   {
+    id: 'concepts',
+    label: 'Concept space',
+    path: 'concepts',
+    // Index health is open to every role with index.view; the other views need concepts.view.
+    permission: 'index.view',
+    summary:
+      'The spectrum, leading concepts, related terms, a map of the documents, groups and index health.',
+  },
+  {
     id: 'documents',
     label: 'Documents',
     path: 'documents',
