@@ -208,6 +208,25 @@ describeBrowser('foundation screens', () => {
     await p.close();
   });
 
+  it('a person with no role on the matter sees the same "no such matter" as for one that does not exist', async () => {
+    page = await browser.context.newPage();
+    screenshotOnFailure(() => page, 'outsider');
+    const p = page;
+    await signInAs(p, 'outsider@quarry.example');
+    await p.getByText('You are not on any matter yet').waitFor();
+    for (const id of [quarry.seeded.matterId, 999_999]) {
+      await p.goto(`${quarry.baseUrl}/matters/${id}`);
+      await p.getByTestId('not-found').getByText('No such matter').waitFor();
+      expect(await p.getByTestId('matter-nav').count()).toBe(0);
+    }
+    const status = await p.evaluate(
+      async (id) => (await fetch(`/api/matters/${id}`)).status,
+      quarry.seeded.matterId,
+    );
+    expect(status).toBe(404);
+    await p.close();
+  });
+
   it('a person changes their password on My account and signs in with the new one', async () => {
     page = await browser.context.newPage();
     screenshotOnFailure(() => page, 'account');
