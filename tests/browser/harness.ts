@@ -121,6 +121,9 @@ export async function startQuarry(options: StartQuarryOptions = {}): Promise<Qua
   });
   const ctx = await createContext(config);
 
+  // The corpus step reads QUARRY_SEED_CORPUS from the process environment (off under
+  // Vitest unless set); each test file runs in its own worker, so setting it is local.
+  if (seedCorpus) process.env.QUARRY_SEED_CORPUS = '1';
   // Without the corpus, the post-seed steps (the corpus load) are held back for this seed only.
   const held = seedCorpus ? [] : postSeedSteps.splice(0, postSeedSteps.length);
   let seeded: SeededDemo | null;
