@@ -18,13 +18,13 @@ export const NAVIGATION_KEYS = [
  */
 export function codeKeyMap(active: readonly Code[]): Map<string, Code> {
   const map = new Map<string, Code>();
-  for (const code of active) {
-    if (code.shortcut && !(RESERVED_KEYS as readonly string[]).includes(code.shortcut))
-      map.set(code.shortcut, code);
-  }
+  const usable = (key: string | null): key is string =>
+    key !== null && !(RESERVED_KEYS as readonly string[]).includes(key) && !map.has(key);
+  for (const code of active) if (usable(code.shortcut)) map.set(code.shortcut, code);
+  const keyed = new Set(map.values());
   active.slice(0, 9).forEach((code, index) => {
     const digit = String(index + 1);
-    if (!code.shortcut && !map.has(digit)) map.set(digit, code);
+    if (!keyed.has(code) && usable(digit)) map.set(digit, code);
   });
   return map;
 }

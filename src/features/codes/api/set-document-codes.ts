@@ -1,4 +1,9 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import {
+  type QueryClient,
+  mutationOptions,
+  useMutation,
+  useQueryClient,
+} from '@tanstack/react-query';
 import type { DocumentCodesResponse } from '../../../../shared/schemas/codes';
 import type { CodeRef } from '../../../../shared/schemas/search';
 import { api } from '../../../lib/api-client';
@@ -29,11 +34,11 @@ export interface SetDocumentCodesVars {
 
 /**
  * Optimistic: the new codes show at once; a refusal puts the old ones back and the
- * mutation's error says why. Changes to one document run one after another (scope).
+ * mutation's error says why. Changes in one matter run one after another (scope), so
+ * the server sees them in the order they were made.
  */
-export function useSetDocumentCodes(matterId: number) {
-  const queryClient = useQueryClient();
-  return useMutation<DocumentCodesResponse, Error, SetDocumentCodesVars, CodingSnapshot>({
+export function setDocumentCodesMutationOptions(queryClient: QueryClient, matterId: number) {
+  return mutationOptions<DocumentCodesResponse, Error, SetDocumentCodesVars, CodingSnapshot>({
     mutationFn: ({ documentId, codes }) =>
       setDocumentCodes(
         matterId,
@@ -58,4 +63,9 @@ export function useSetDocumentCodes(matterId: number) {
     },
     onSettled: () => queryClient.invalidateQueries({ queryKey: codesQueryKey(matterId) }),
   });
+}
+
+export function useSetDocumentCodes(matterId: number) {
+  const queryClient = useQueryClient();
+  return useMutation(setDocumentCodesMutationOptions(queryClient, matterId));
 }

@@ -81,9 +81,14 @@ export function CodingPanel({
           Archived codes on this document: {archivedApplied.map((c) => c.name).join(', ')}
         </p>
       ) : null}
-      {!canCode ? (
+      {canCode ? (
+        <p className="mt-2 text-xs text-ink-muted">
+          A code's key applies or removes it; <Kbd>j</Kbd> <Kbd>k</Kbd> move on and back;{' '}
+          <Kbd>?</Kbd> shows every key.
+        </p>
+      ) : (
         <p className="mt-2 text-xs text-ink-muted">Your role may not code documents.</p>
-      ) : null}
+      )}
       {mutation.isError ? (
         <Notice tone="danger" className="mt-2" title="The change was not saved">
           {describeError(mutation.error)} The codes shown are the ones stored.
