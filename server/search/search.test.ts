@@ -24,6 +24,7 @@ type Hit = {
   score: number;
   rawScore: number;
   duplicateOf: number | null;
+  codes: { id: number; name: string }[];
   snippet: { text: string; mark?: string }[];
   why: { topTerms: { term: string }[]; nearestQueryTerms: { term: string }[] };
 };
