@@ -111,6 +111,56 @@ describe('firm admin', () => {
     }
   });
 
+  test('disabling an account ends its sessions at once and refuses its sign-ins; re-enabling restores them', async () => {
+    const person = await t.buildUser();
+    const session = await t.agentFor(person);
+    expect((await session.get('/api/auth/me')).status).toBe(200);
+    const disabled = await adminAgent
+      .patch(`/api/admin/users/${person.id}`)
+      .send({ disabled: true });
+    expect(disabled.status).toBe(200);
+    expect(disabled.body.user.disabled).toBe(true);
+    expect((await session.get('/api/auth/me')).status).toBe(401);
+    const signIn = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: person.email, password: person.password });
+    expect(signIn.status).toBe(401);
+    expect(signIn.body.error.code).toBe('invalid_credentials');
+    await adminAgent.patch(`/api/admin/users/${person.id}`).send({ disabled: false });
+    await t.signIn(t.agent(), person.email, person.password);
+    const actions = await t.ctx.db
+      .selectFrom('audit_events')
+      .select('action')
+      .where('target_id', '=', person.id)
+      .orderBy('id')
+      .execute();
+    expect(actions.map((a) => a.action)).toEqual(['user.disabled', 'user.enabled']);
+  });
+
+  test("grants and removes firm-admin rights, never on one's own account; unknown accounts 404; empty changes 400", async () => {
+    const person = await t.buildUser();
+    const promoted = await adminAgent
+      .patch(`/api/admin/users/${person.id}`)
+      .send({ isAdmin: true });
+    expect(promoted.body.user.isAdmin).toBe(true);
+    expect((await (await t.agentFor(person)).get('/api/admin/users')).status).toBe(200);
+    await adminAgent.patch(`/api/admin/users/${person.id}`).send({ isAdmin: false });
+    expect((await (await t.agentFor(person)).get('/api/admin/users')).status).toBe(403);
+    expect(
+      (await adminAgent.patch(`/api/admin/users/${admin.id}`).send({ disabled: true })).status,
+    ).toBe(409);
+    expect(
+      (await adminAgent.patch(`/api/admin/users/${admin.id}`).send({ isAdmin: false })).status,
+    ).toBe(409);
+    expect(
+      (await adminAgent.patch('/api/admin/users/nobody').send({ disabled: true })).status,
+    ).toBe(404);
+    const empty = await adminAgent.patch(`/api/admin/users/${person.id}`).send({});
+    expect(empty.status).toBe(400);
+    expect(empty.body.error.message).toBe('body: give disabled or isAdmin');
+  });
+
   test('creates a matter with a lead by e-mail, and the lead (not the admin) can open it', async () => {
     const lead = await t.buildUser({ email: 'matter.lead@example.com' });
     const created = await adminAgent.post('/api/matters').send({

@@ -4,12 +4,15 @@ import {
   type AdminMattersResponse,
   type AppointLeadResponse,
   type CreateUserResponse,
+  type UpdateUserResponse,
+  updateUserSchema,
+  userParams,
 } from '../../shared/schemas/admin';
 import { matterParams } from '../../shared/schemas/common';
 import { ownOrigin } from '../http/csrf';
 import { defineRoute } from '../http/route';
 import { appointLead, listAdminMatters } from '../matters/service';
-import { createUserByAdmin, listAdminUsers } from './service';
+import { createUserByAdmin, listAdminUsers, updateUserByAdmin } from './service';
 
 export const adminRoutes = [
   defineRoute({
@@ -28,6 +31,20 @@ export const adminRoutes = [
     summary: 'Create an account with a temporary password or an e-mailed set-up link (firm admin)',
     handler: ({ ctx, req, user, body, ip }): Promise<CreateUserResponse> =>
       createUserByAdmin(ctx, body, { ...user, ip }, ctx.config.publicOrigin ?? ownOrigin(req)),
+  }),
+  defineRoute({
+    method: 'patch',
+    path: '/admin/users/:userId',
+    access: { firm: 'admin.accounts' },
+    schemas: { params: userParams, body: updateUserSchema },
+    summary: 'Disable or re-enable an account, or change its admin flag (firm admin)',
+    handler: async ({ ctx, user, params, body, ip }): Promise<UpdateUserResponse> => ({
+      user: await updateUserByAdmin(ctx, params.userId, body, {
+        id: user.id,
+        email: user.email,
+        ip,
+      }),
+    }),
   }),
   defineRoute({
     method: 'get',

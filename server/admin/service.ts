@@ -3,12 +3,14 @@ import type {
   AdminUsersResponse,
   CreateUserReq,
   CreateUserResponse,
+  UpdateUserReq,
 } from '../../shared/schemas/admin';
+import { conflict, notFound } from '../http/errors';
 import { createAccountWithSetupLink } from '../account-setup/service';
 import type { AppContext } from '../context';
 import { recordAudit } from '../audit/record';
 import type { Db } from '../db/database';
-import { listUsersWithMatterCounts } from '../users/queries';
+import { findUserById, listUsersWithMatterCounts } from '../users/queries';
 import { createAccount } from '../users/service';
 
 type UserListRow = Awaited<ReturnType<typeof listUsersWithMatterCounts>>[number];
@@ -61,4 +63,54 @@ export async function createUserByAdmin(
   });
   const created = (await listUsersWithMatterCounts(ctx.db)).find((user) => user.id === userId);
   return { user: toAdminUser(created as UserListRow), setupLinkSent };
+}
+
+/** Disables/re-enables an account or changes its firm-admin flag (never one's own). */
+export async function updateUserByAdmin(
+  ctx: AppContext,
+  userId: string,
+  input: UpdateUserReq,
+  actor: { id: string; email: string; ip: string | null },
+): Promise<AdminUser> {
+  const user = await findUserById(ctx.db, userId);
+  if (!user) throw notFound('Account');
+  if (userId === actor.id && (input.disabled === true || input.isAdmin === false)) {
+    throw conflict('You cannot disable your own account or remove your own admin rights.');
+  }
+  const audit = {
+    actorId: actor.id,
+    actorEmail: actor.email,
+    ip: actor.ip,
+    targetType: 'user',
+    targetId: userId,
+  };
+  await ctx.db.transaction().execute(async (trx) => {
+    if (input.disabled !== undefined && input.disabled !== (user.disabled_at !== null)) {
+      await trx
+        .updateTable('users')
+        .set({ disabled_at: input.disabled ? new Date().toISOString() : null })
+        .where('id', '=', userId)
+        .execute();
+      await recordAudit(trx, {
+        ...audit,
+        action: input.disabled ? 'user.disabled' : 'user.enabled',
+        detail: { email: user.email },
+      });
+    }
+    if (input.isAdmin !== undefined && input.isAdmin !== (user.is_admin === 1)) {
+      await trx
+        .updateTable('users')
+        .set({ is_admin: input.isAdmin ? 1 : 0 })
+        .where('id', '=', userId)
+        .execute();
+      await recordAudit(trx, {
+        ...audit,
+        action: 'user.admin_changed',
+        detail: { email: user.email, isAdmin: input.isAdmin },
+      });
+    }
+  });
+  if (input.disabled) await ctx.auth.endAllSessions(userId);
+  const updated = (await listUsersWithMatterCounts(ctx.db)).find((row) => row.id === userId);
+  return toAdminUser(updated as UserListRow);
 }

@@ -13,7 +13,14 @@ import { personNameSchema } from '../../shared/schemas/common';
 import { recordAudit } from '../audit/record';
 import { hashPassword, verifyPassword } from '../auth/password';
 import type { AppContext } from '../context';
-import { conflict, HttpError, matterNotFound, notFound, validationError } from '../http/errors';
+import {
+  conflict,
+  forbidden,
+  HttpError,
+  matterNotFound,
+  notFound,
+  validationError,
+} from '../http/errors';
 import { findMatterById } from '../matters/queries';
 import { findMemberRow, insertMember } from '../members/queries';
 import { findUserByEmail, findUserById, insertUser } from '../users/queries';
@@ -172,6 +179,7 @@ export async function acceptInvitation(
   );
   const existing = await findUserByEmail(ctx.db, invitation.email);
   let newUser: { id: string; name: string; passwordHash: string } | null = null;
+  if (existing?.disabled_at) throw forbidden('This account is disabled; ask a firm administrator.');
   if (existing) {
     const signedInAsInvitee = req.auth?.user.id === existing.id;
     if (!signedInAsInvitee) {

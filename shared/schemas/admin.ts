@@ -15,6 +15,27 @@ export const createUserSchema = z.object({
 });
 export type CreateUserReq = z.infer<typeof createUserSchema>;
 
+export const userParams = z.object({ userId: text().min(1, 'is required') });
+export type UserParams = z.infer<typeof userParams>;
+
+/**
+ * PATCH /api/admin/users/:userId. Disabling ends every session of the account at once
+ * and refuses its sign-ins; an admin cannot disable or demote their own account.
+ */
+export const updateUserSchema = z
+  .object({
+    disabled: z.boolean({ error: 'must be true or false' }).optional(),
+    isAdmin: z.boolean({ error: 'must be true or false' }).optional(),
+  })
+  .refine((value) => value.disabled !== undefined || value.isAdmin !== undefined, {
+    error: 'give disabled or isAdmin',
+  });
+export type UpdateUserReq = z.infer<typeof updateUserSchema>;
+
+export interface UpdateUserResponse {
+  user: AdminUser;
+}
+
 /** A user id or an e-mail address naming an existing account. */
 export const userRefSchema = text().trim().min(1, 'is required').max(254, 'is too long');
 
