@@ -147,7 +147,9 @@ function SearchPage({ matterId }: { matterId: number }) {
             <div className="border-t border-line pt-3">
               <SearchFiltersBar
                 filters={state.filters}
-                onChange={(filters: SearchFilters) => go({ filters, pageIndex: 0 })}
+                onChange={(filters: SearchFilters) =>
+                  go({ filters, pageIndex: 0, savedSearchId: undefined })
+                }
                 custodians={custodians.data?.custodians ?? []}
                 codes={codes.data?.codes ?? []}
               />

@@ -29,20 +29,25 @@ export function RecentSearchesPanel({ matterId }: { matterId: number }) {
         <ul className="space-y-1.5 text-[13px]">
           {recent.data.searches.map((item, index) => (
             <li key={`${item.at}-${index}`}>
-              <Link
-                className="block truncate text-accent-strong hover:underline"
-                title={item.query || 'More like this'}
-                to={searchHref(matterId, {
-                  query: item.query,
-                  mode: item.mode,
-                  filters: item.filters,
-                  pageIndex: 0,
-                  pageSize: SEARCH_PAGE_DEFAULT,
-                  likeDocumentId: item.similarToDocumentId ?? undefined,
-                })}
-              >
-                {item.query ? `“${item.query}”` : 'More like this document'}
-              </Link>
+              {item.query || item.similarToDocumentId ? (
+                <Link
+                  className="block truncate text-accent-strong hover:underline"
+                  title={item.query || 'More like this document'}
+                  to={searchHref(matterId, {
+                    query: item.query,
+                    mode: item.mode,
+                    filters: item.filters,
+                    pageIndex: 0,
+                    pageSize: SEARCH_PAGE_DEFAULT,
+                    likeDocumentId: item.similarToDocumentId ?? undefined,
+                  })}
+                >
+                  {item.query ? `“${item.query}”` : 'More like this document'}
+                </Link>
+              ) : (
+                // The passage itself is not kept in the log, so it cannot be re-run from here.
+                <span className="block text-ink-muted">More like a selected passage</span>
+              )}
               <span className="text-[11px] text-ink-faint">
                 {MODE_LABELS[item.mode]} · {item.hits} hits · {formatDateTime(item.at)}
               </span>
