@@ -253,10 +253,26 @@ export async function up(db: Kysely<unknown>): Promise<void> {
 
 export async function down(db: Kysely<unknown>): Promise<void> {
   const tables = [
-    'audit_events', 'saved_searches', 'notes', 'privilege_entries', 'document_codes', 'codes',
-    'index_docs', 'index_terms', 'index_versions', 'jobs', 'documents_fts', 'document_texts',
-    'documents', 'upload_batches', 'custodians', 'invitations', 'matter_members', 'matters',
-    'sessions', 'users',
+    'audit_events',
+    'saved_searches',
+    'notes',
+    'privilege_entries',
+    'document_codes',
+    'codes',
+    'index_docs',
+    'index_terms',
+    'index_versions',
+    'jobs',
+    'documents_fts',
+    'document_texts',
+    'documents',
+    'upload_batches',
+    'custodians',
+    'invitations',
+    'matter_members',
+    'matters',
+    'sessions',
+    'users',
   ];
   for (const table of tables) await sql.raw(`DROP TABLE IF EXISTS ${table}`).execute(db);
 }

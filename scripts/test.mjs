@@ -13,7 +13,9 @@ function step(name, cmd, args, env = {}) {
   process.stdout.write(`\n== ${name}: ${cmd} ${args.join(' ')}\n`);
   const run = spawnSync(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
   const ok = run.status === 0;
-  process.stdout.write(`== ${name}: ${ok ? 'ok' : 'FAILED'} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`);
+  process.stdout.write(
+    `== ${name}: ${ok ? 'ok' : 'FAILED'} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`,
+  );
   return ok;
 }
 
