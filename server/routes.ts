@@ -2,6 +2,7 @@ import { accountSetupRoutes } from './account-setup/router';
 import { adminRoutes } from './admin/router';
 import { auditRoutes } from './audit/router';
 import { codeRoutes } from './codes/router';
+import { conceptRoutes } from './concepts/router';
 import { authRoutes } from './auth/router';
 import { devRoutes } from './dev/router';
 import { exportRoutes } from './exports/router';
@@ -37,4 +38,5 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...documentRoutes,
   ...jobRoutes,
   ...indexRoutes,
+  ...conceptRoutes,
 ];

@@ -188,6 +188,46 @@ export interface IndexBlobsTable {
   data: Uint8Array;
 }
 
+/** A matter lead's name for a concept dimension of an index version (issue 6). */
+export interface IndexDimensionLabelsTable {
+  index_id: number;
+  dim: number;
+  label: string;
+  labelled_by: string | null;
+  labelled_at: string;
+}
+
+/** A k-means grouping of an index version's documents (server/concepts). */
+export interface ConceptGroupingsTable {
+  id: Generated<number>;
+  index_id: number;
+  groups: number;
+  seed: number;
+  dims: number;
+  documents: number;
+  iterations: number;
+  converged: number;
+  inertia: number;
+  /** groups x dims little-endian Float32. */
+  centres: Uint8Array;
+  created_by: string | null;
+  created_at: string;
+}
+
+export interface ConceptGroupsTable {
+  id: Generated<number>;
+  grouping_id: number;
+  number: number;
+  size: number;
+  /** JSON [{ term, label, weight }]. */
+  top_terms: Generated<string>;
+}
+
+export interface ConceptGroupMembersTable {
+  group_id: number;
+  document_id: number;
+}
+
 export interface CodesTable {
   id: Generated<number>;
   matter_id: number;
@@ -263,6 +303,10 @@ export interface Database {
   index_terms: IndexTermsTable;
   index_docs: IndexDocsTable;
   index_blobs: IndexBlobsTable;
+  index_dimension_labels: IndexDimensionLabelsTable;
+  concept_groupings: ConceptGroupingsTable;
+  concept_groups: ConceptGroupsTable;
+  concept_group_members: ConceptGroupMembersTable;
   codes: CodesTable;
   document_codes: DocumentCodesTable;
   privilege_entries: PrivilegeEntriesTable;
