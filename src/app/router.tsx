@@ -2,6 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, redirect } from 'react-router';
 import { setUnauthenticatedHandler } from '../lib/api-client';
 import * as account from './routes/account';
+import * as accountSetup from './routes/account-setup';
 import * as admin from './routes/admin';
 import * as appRoot from './routes/app-root';
 import * as devMail from './routes/dev-mail';
@@ -44,6 +45,11 @@ export function createAppRouter(queryClient: QueryClient) {
     {
       path: '/invitations/:token',
       Component: invitation.InvitationRoute,
+      ErrorBoundary: RouteError,
+    },
+    {
+      path: '/account-setup/:token',
+      Component: accountSetup.AccountSetupRoute,
       ErrorBoundary: RouteError,
     },
     { path: '/dev/mail', Component: devMail.DevMailRoute, ErrorBoundary: RouteError },
