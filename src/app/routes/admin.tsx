@@ -3,10 +3,12 @@ import { type FormEvent, useState } from 'react';
 import {
   CONTROL_PREFIX_PATTERN,
   EMAIL_MAX_LENGTH,
+  INVITATION_TTL_DAYS,
   MATTER_NAME_MAX_LENGTH,
   NAME_MAX_LENGTH,
   PASSWORD_MIN_LENGTH,
 } from '../../../shared/limits';
+import type { CreateUserResponse } from '../../../shared/schemas/admin';
 import {
   Badge,
   Button,
@@ -279,16 +281,41 @@ function AppointLeadDialog({
 function AccountsSection() {
   const accounts = useUsers();
   const [creating, setCreating] = useState(false);
+  const [created, setCreated] = useState<CreateUserResponse | null>(null);
   return (
     <section aria-labelledby="admin-accounts-heading">
       <div className="mb-2 flex items-center justify-between">
         <h2 id="admin-accounts-heading" className="text-sm font-semibold">
           Accounts
         </h2>
-        <Button size="sm" variant="primary" onClick={() => setCreating(true)}>
+        <Button
+          size="sm"
+          variant="primary"
+          onClick={() => {
+            setCreated(null);
+            setCreating(true);
+          }}
+        >
           New account
         </Button>
       </div>
+      {created ? (
+        <div data-testid="account-created" className="mb-2">
+          <Notice tone="ok">
+            {created.setupLinkSent ? (
+              <>
+                Account created. A set-up link was e-mailed to <strong>{created.user.email}</strong>
+                .
+              </>
+            ) : (
+              <>
+                Account created for <strong>{created.user.email}</strong>. Give them the temporary
+                password by a separate channel.
+              </>
+            )}
+          </Notice>
+        </div>
+      ) : null}
       <QueryBoundary query={accounts} errorTitle="Accounts could not be loaded">
         {({ users: list }) => (
           <Table caption="All accounts of the firm" data-testid="admin-accounts-table">
@@ -321,21 +348,42 @@ function AccountsSection() {
           </Table>
         )}
       </QueryBoundary>
-      <CreateAccountDialog open={creating} onClose={() => setCreating(false)} />
+      <CreateAccountDialog
+        open={creating}
+        onClose={() => setCreating(false)}
+        onCreated={setCreated}
+      />
     </section>
   );
 }
 
-function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
+type FirstPasswordMode = 'setup-link' | 'temporary-password';
+
+const FIRST_PASSWORD_MODES: { value: FirstPasswordMode; label: string }[] = [
+  { value: 'setup-link', label: 'E-mail a set-up link' },
+  { value: 'temporary-password', label: 'Set a temporary password' },
+];
+
+function CreateAccountDialog({
+  open,
+  onClose,
+  onCreated,
+}: {
+  open: boolean;
+  onClose: () => void;
+  onCreated: (result: CreateUserResponse) => void;
+}) {
   const create = useCreateUser();
   const [email, setEmail] = useState('');
   const [name, setName] = useState('');
+  const [mode, setMode] = useState<FirstPasswordMode>('setup-link');
   const [password, setPassword] = useState('');
   const [isAdmin, setIsAdmin] = useState(false);
   const close = () => {
     create.reset();
     setEmail('');
     setName('');
+    setMode('setup-link');
     setPassword('');
     setIsAdmin(false);
     onClose();
@@ -343,8 +391,19 @@ function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => 
   function submit(event: FormEvent) {
     event.preventDefault();
     create.mutate(
-      { email: email.trim(), name: name.trim(), temporaryPassword: password, isAdmin },
-      { onSuccess: close },
+      {
+        email: email.trim(),
+        name: name.trim(),
+        isAdmin,
+        // Without a temporary password the server e-mails a one-time set-up link.
+        ...(mode === 'temporary-password' ? { temporaryPassword: password } : {}),
+      },
+      {
+        onSuccess: (result) => {
+          onCreated(result);
+          close();
+        },
+      },
     );
   }
   const error = create.error;
@@ -353,9 +412,9 @@ function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => 
       open={open}
       onClose={close}
       title="New account"
-      description="Give the person this first password by a separate channel; they can change it on My account."
+      description="The person either chooses their own password through a one-time link sent to this e-mail address, or receives a temporary password from you by a separate channel."
     >
-      <form onSubmit={submit} className="space-y-3" noValidate>
+      <form onSubmit={submit} className="space-y-3" noValidate data-testid="create-account-form">
         <TextField
           label="Name"
           required
@@ -373,15 +432,41 @@ function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => 
           onChange={(e) => setEmail(e.target.value)}
           error={fieldError(error, 'email')}
         />
-        <TextField
-          label="First password"
-          type="password"
-          autoComplete="new-password"
-          hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
-          value={password}
-          onChange={(e) => setPassword(e.target.value)}
-          error={fieldError(error, 'temporaryPassword')}
-        />
+        <fieldset className="space-y-1.5">
+          <legend className="text-[13px] font-medium text-ink">First password</legend>
+          {FIRST_PASSWORD_MODES.map((option) => (
+            <label key={option.value} className="flex items-center gap-2 text-sm">
+              <input
+                type="radio"
+                name="first-password-mode"
+                value={option.value}
+                className="size-4 accent-accent"
+                checked={mode === option.value}
+                onChange={() => {
+                  setMode(option.value);
+                  create.reset();
+                }}
+              />
+              {option.label}
+            </label>
+          ))}
+        </fieldset>
+        {mode === 'setup-link' ? (
+          <p className="text-xs text-ink-muted">
+            The link works once and expires after {INVITATION_TTL_DAYS} days (the default lifetime).
+            Until it is used, nobody knows the account's password.
+          </p>
+        ) : (
+          <TextField
+            label="Temporary password"
+            type="password"
+            autoComplete="new-password"
+            hint={`At least ${PASSWORD_MIN_LENGTH} characters. They can change it on My account.`}
+            value={password}
+            onChange={(e) => setPassword(e.target.value)}
+            error={fieldError(error, 'temporaryPassword')}
+          />
+        )}
         <label className="flex items-center gap-2 text-sm">
           <input
             type="checkbox"
@@ -397,7 +482,7 @@ function CreateAccountDialog({ open, onClose }: { open: boolean; onClose: () => 
         <div className="flex justify-end gap-2 pt-1">
           <Button onClick={close}>Cancel</Button>
           <Button type="submit" variant="primary" busy={create.isPending}>
-            Create account
+            {mode === 'setup-link' ? 'Create and send link' : 'Create account'}
           </Button>
         </div>
       </form>

@@ -3,7 +3,7 @@ import type { CreateUserReq, CreateUserResponse } from '../../../../shared/schem
 import { api } from '../../../lib/api-client';
 import { usersQueryOptions } from './get-users';
 
-/** A new account with a temporary password the admin hands over. */
+/** A new account: with a temporary password the admin hands over, or (none given) an e-mailed set-up link. */
 export function createUser(input: CreateUserReq): Promise<CreateUserResponse> {
   return api.post<CreateUserResponse>('/api/admin/users', input);
 }
