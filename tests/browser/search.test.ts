@@ -32,7 +32,9 @@ async function shownControlNumbers(page: Page): Promise<string[]> {
 
 async function waitForMode(page: Page, label: string): Promise<void> {
   await expect.poll(() => page.getByTestId('search-ran-mode').textContent()).toBe(label);
-  await expect.poll(() => page.getByTestId('search-summary').getAttribute('aria-busy')).toBeNull();
+  await expect
+    .poll(() => page.getByTestId('search-summary').getAttribute('data-fetching'))
+    .toBe('false');
 }
 
 describeBrowser('search: concept search finds what keyword search misses', () => {

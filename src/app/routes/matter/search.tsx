@@ -185,7 +185,12 @@ function SearchPage({ matterId }: { matterId: number }) {
           ) : data ? (
             <div className="space-y-2">
               <div className="flex flex-wrap items-baseline justify-between gap-2">
-                <p className="text-sm" aria-live="polite" data-testid="search-summary">
+                <p
+                  className="text-sm"
+                  aria-live="polite"
+                  data-testid="search-summary"
+                  data-fetching={search.isFetching ? 'true' : 'false'}
+                >
                   <strong className="text-base tabular-nums" data-testid="search-total">
                     {data.total.toLocaleString()}
                   </strong>{' '}

@@ -25,8 +25,12 @@ export function QueryForm({
   const boxId = useId();
   const modeName = useId();
 
+  // The switch shows the choice at once; the address bar (the source of truth) follows.
+  const [selected, setSelected] = useState(mode);
+
   // A saved search, a refinement or the back button changes the query from outside.
   useEffect(() => setDraft(query), [query]);
+  useEffect(() => setSelected(mode), [mode]);
 
   function run(nextMode: SearchMode) {
     const text = draft.trim();
@@ -44,13 +48,13 @@ export function QueryForm({
 
   function submit(event: FormEvent) {
     event.preventDefault();
-    run(mode);
+    run(selected);
   }
 
   function onKeyDown(event: KeyboardEvent<HTMLTextAreaElement>) {
     if (event.key === 'Enter' && (event.ctrlKey || event.metaKey)) {
       event.preventDefault();
-      run(mode);
+      run(selected);
     }
   }
 
@@ -87,7 +91,7 @@ export function QueryForm({
                 key={value}
                 className={cn(
                   'cursor-pointer rounded-md border px-2.5 py-1.5 text-xs leading-snug',
-                  value === mode
+                  value === selected
                     ? 'border-accent bg-accent-soft text-ink ring-1 ring-accent'
                     : 'border-line bg-panel text-ink-muted hover:border-line-strong',
                 )}
@@ -97,8 +101,12 @@ export function QueryForm({
                     type="radio"
                     name={modeName}
                     value={value}
-                    checked={value === mode}
-                    onChange={() => (draft.trim() ? run(value) : onSubmit('', value))}
+                    checked={value === selected}
+                    onChange={() => {
+                      setSelected(value);
+                      if (draft.trim()) run(value);
+                      else onSubmit('', value);
+                    }}
                     className="accent-accent"
                     data-testid={`mode-${value}`}
                   />
