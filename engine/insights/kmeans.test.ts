@@ -119,6 +119,17 @@ describe('k-means', () => {
     }
   });
 
+  it('restarts keep the seeding with the least inertia (and stay deterministic)', () => {
+    const rows = randomRows(200, 3, 31);
+    const single = [0, 1, 2, 3].map((r) =>
+      kmeans(rows, 200, 3, { groups: 6, seed: (5 + Math.imul(r, 0x9e3779b9)) >>> 0 }),
+    );
+    const best = kmeans(rows, 200, 3, { groups: 6, seed: 5, restarts: 4 });
+    expect(best.inertia).toBeCloseTo(Math.min(...single.map((s) => s.inertia)), 9);
+    const again = kmeans(rows, 200, 3, { groups: 6, seed: 5, restarts: 4 });
+    expect(Array.from(again.assignment)).toEqual(Array.from(best.assignment));
+  });
+
   it('uses cosine geometry: a row and its multiple land together', () => {
     const rows = Float32Array.from([1, 0, 10, 0, 0, 1, 0, 7]);
     const result = kmeans(rows, 4, 2, { groups: 2, seed: 1 });

@@ -20,6 +20,12 @@ export interface KMeansOptions {
   maxIterations?: number;
   /** One id per row; rows are processed in ascending id order. */
   ids?: ArrayLike<number>;
+  /**
+   * Independent seedings (default 1); the run with the least inertia is kept, the first
+   * on ties. Lloyd's iterations stop at a local minimum, so several starts are common
+   * practice (e.g. scikit-learn's n_init).
+   */
+  restarts?: number;
 }
 
 export interface KMeansResult {
@@ -149,6 +155,28 @@ function seedCentres(
 
 /** k-means of the n x d rows (see the file comment for distance and determinism). */
 export function kmeans(
+  rows: ArrayLike<number>,
+  n: number,
+  d: number,
+  options: KMeansOptions,
+): KMeansResult {
+  const restarts = options.restarts ?? 1;
+  if (!Number.isInteger(restarts) || restarts < 1)
+    throw new KMeansInputError(`restarts must be a whole number above 0, got ${restarts}`);
+  let best: KMeansResult | null = null;
+  const seed = options.seed ?? 1;
+  for (let r = 0; r < restarts; r++) {
+    // Restart r draws from its own stream, derived from the seed (golden-ratio stride).
+    const run = kmeansOnce(rows, n, d, {
+      ...options,
+      seed: (seed + Math.imul(r, 0x9e3779b9)) >>> 0,
+    });
+    if (!best || run.inertia < best.inertia - 1e-12 * Math.max(1, best.inertia)) best = run;
+  }
+  return best!;
+}
+
+function kmeansOnce(
   rows: ArrayLike<number>,
   n: number,
   d: number,
