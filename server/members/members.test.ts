@@ -138,9 +138,20 @@ describe('audit log', () => {
       actor: { id: lead.id, email: lead.email, name: lead.name },
       targetType: 'user',
       targetId: people[0].id,
-      detail: { from: 'reviewer', to: 'attorney' },
+      detail: { email: people[0].email, name: people[0].name, from: 'reviewer', to: 'attorney' },
     });
     expect(roleChange.ip).toMatch(/127\.0\.0\.1/);
+    // The revoked person is no longer a member, so the event itself must name them.
+    expect(all.body.events[0]).toMatchObject({
+      action: 'member.revoked',
+      targetId: people[1].id,
+      detail: { email: people[1].email, name: people[1].name, role: 'reviewer' },
+    });
+    expect(all.body.events[2].detail).toMatchObject({
+      email: people[2].email,
+      name: people[2].name,
+      role: 'reviewer',
+    });
     expect(all.body.actors).toEqual([{ id: lead.id, email: lead.email, name: lead.name }]);
 
     const granted = await leadAgent.get(`/api/matters/${other.id}/audit?action=member.granted`);

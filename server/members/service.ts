@@ -10,7 +10,7 @@ import type {
 import { recordAudit } from '../audit/record';
 import type { Db } from '../db/database';
 import { conflict, HttpError, notFound } from '../http/errors';
-import { findUserByEmail } from '../users/queries';
+import { findUserByEmail, findUserById } from '../users/queries';
 import {
   countLeads,
   deleteMember,
@@ -98,7 +98,7 @@ export async function grantMember(
       action: 'member.granted',
       targetType: 'user',
       targetId: user.id,
-      detail: { email: user.email, role: input.role },
+      detail: { email: user.email, name: user.name, role: input.role },
     });
   });
   return readMember(db, matterId, user.id);
@@ -117,6 +117,7 @@ export async function changeRole(
     if (!member) throw notFound('Member');
     if (member.role === input.role) return;
     if (member.role === 'lead' && (await countLeads(trx, matterId)) <= 1) throw lastLead();
+    const account = await findUserById(trx, userId);
     await updateMemberRole(trx, matterId, userId, input.role);
     await recordAudit(trx, {
       actorId: actor.id,
@@ -126,7 +127,8 @@ export async function changeRole(
       action: 'member.role_changed',
       targetType: 'user',
       targetId: userId,
-      detail: { from: member.role, to: input.role },
+      // Who it was, so the log can still name them after they leave the matter.
+      detail: { email: account?.email, name: account?.name, from: member.role, to: input.role },
     });
   });
   return readMember(db, matterId, userId);
@@ -143,6 +145,7 @@ export async function revokeMember(
     const member = await findMemberRow(trx, matterId, userId);
     if (!member) throw notFound('Member');
     if (member.role === 'lead' && (await countLeads(trx, matterId)) <= 1) throw lastLead();
+    const account = await findUserById(trx, userId);
     await deleteMember(trx, matterId, userId);
     await recordAudit(trx, {
       actorId: actor.id,
@@ -152,7 +155,7 @@ export async function revokeMember(
       action: 'member.revoked',
       targetType: 'user',
       targetId: userId,
-      detail: { role: member.role },
+      detail: { email: account?.email, name: account?.name, role: member.role },
     });
   });
 }

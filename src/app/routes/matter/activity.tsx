@@ -74,7 +74,7 @@ function ActivityLog({ matterId }: { matterId: number }) {
   const filters = filtersFrom(params);
   const events = useAuditEvents(matterId, filters);
   // Names for the people events point at (role changes, revocations), from the log's
-  // actors and the current members; a former member shows by e-mail or id.
+  // actors and the current members; a former member by the name or e-mail the event kept.
   const members = useMembers(matterId);
   const people = new Map<string, string>();
   for (const actor of events.data?.actors ?? []) {
@@ -83,7 +83,8 @@ function ActivityLog({ matterId }: { matterId: number }) {
   for (const member of members.data?.members ?? []) people.set(member.userId, member.name);
   const targetOf = (event: AuditEvent): string | null => {
     if (event.targetType !== 'user' || !event.targetId) return null;
-    return people.get(event.targetId) ?? (event.detail.email as string | undefined) ?? null;
+    const { name, email } = event.detail as { name?: string; email?: string };
+    return people.get(event.targetId) ?? (name || email) ?? null;
   };
   // Cursors of the newer pages already seen, so "Newer" can step back.
   const [newerCursors, setNewerCursors] = useState<(number | undefined)[]>([]);
