@@ -7,7 +7,7 @@ export default defineConfig({
     environment: 'node',
     include: ['**/*.test.ts'],
     exclude: ['node_modules/**', 'dist/**', 'data/**'],
-    testTimeout: 60_000,
+    testTimeout: 180_000,
     hookTimeout: 120_000,
     pool: 'forks',
     fileParallelism: true,

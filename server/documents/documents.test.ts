@@ -43,7 +43,8 @@ function listTree(root: string): string[] {
     .map((e) => path.relative(root, path.join(e.parentPath, e.name)));
 }
 
-async function waitForJob(agent: Agent, jobId: number, timeoutMs = 30_000) {
+// Generous: the first extraction starts a worker thread and pdf.js, slow on a busy 2-core machine.
+async function waitForJob(agent: Agent, jobId: number, timeoutMs = 120_000) {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const res = await agent.get(`/api/jobs/${jobId}`);
