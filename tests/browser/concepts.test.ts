@@ -114,11 +114,36 @@ describeBrowser('concept space: spectrum, rebuild with another k, document map',
       fullPage: true,
     });
 
+    // The other views of the new version, with a look at each (screenshots for design review).
+    const indexed = rebuilt.counts.indexed + rebuilt.counts.foldedIn;
+    await p.getByTestId('concepts-tab-health').click();
+    await expect
+      .poll(() => p.getByTestId('health-documents').textContent())
+      .toBe(indexed.toLocaleString('en-GB'));
+    await p.screenshot({ path: join(ARTIFACTS_DIR, 'concepts-health.png'), fullPage: true });
+    await p.getByTestId('concepts-tab-dimensions').click();
+    await p.getByTestId('dimension-1').waitFor();
+    const firstTerm = await p
+      .getByTestId('dimension-1')
+      .locator('li span[title]')
+      .first()
+      .getAttribute('title');
+    await p.screenshot({ path: join(ARTIFACTS_DIR, 'concepts-dimensions.png') });
+    await p.getByTestId('concepts-tab-terms').click();
+    await p.getByTestId('neighbours-term').fill(firstTerm ?? 'contract');
+    await p.getByTestId('neighbours-submit').click();
+    await p.getByTestId('neighbour-row').first().waitFor();
+    await p.screenshot({ path: join(ARTIFACTS_DIR, 'concepts-terms.png') });
+    await p.getByTestId('concepts-tab-groups').click();
+    await p.getByTestId('groups-count').fill('6');
+    await p.getByTestId('groups-run').click();
+    await expect.poll(() => p.getByTestId('group-row').count()).toBe(6);
+    await p.screenshot({ path: join(ARTIFACTS_DIR, 'concepts-groups.png') });
+
     // The map draws every document of the serving version.
     await p.getByTestId('concepts-tab-map').click();
     const canvas = p.getByTestId('document-map-canvas');
     await canvas.waitFor();
-    const indexed = rebuilt.counts.indexed + rebuilt.counts.foldedIn;
     expect(indexed).toBeGreaterThan(50);
     await expect.poll(() => canvas.getAttribute('data-points')).toBe(String(indexed));
     expect(await canvas.getAttribute('data-total')).toBe(String(indexed));

@@ -64,7 +64,7 @@ function bruteForce(
   data: MapResponse,
   category: Uint16Array,
   hidden: Set<number>,
-  t: { scale: number; ox: number; oy: number },
+  t: { scaleX: number; scaleY: number; ox: number; oy: number },
   px: number,
   py: number,
   radius: number,
@@ -73,8 +73,8 @@ function bruteForce(
   let bestD = radius * radius;
   for (let i = 0; i < data.count; i++) {
     if (hidden.has(category[i])) continue;
-    const ex = t.ox + Math.fround(data.x[i]) * t.scale - px;
-    const ey = t.oy - Math.fround(data.y[i]) * t.scale - py;
+    const ex = t.ox + Math.fround(data.x[i]) * t.scaleX - px;
+    const ey = t.oy - Math.fround(data.y[i]) * t.scaleY - py;
     const d = ex * ex + ey * ey;
     if (d <= bestD) {
       bestD = d;
@@ -133,7 +133,7 @@ describe('document map model', () => {
           // Ties at an equal distance may pick either point; the distance must match.
           if (got !== expected) {
             const dist = (i: number) =>
-              Math.hypot(t.ox + map.x[i] * t.scale - px, t.oy - map.y[i] * t.scale - py);
+              Math.hypot(t.ox + map.x[i] * t.scaleX - px, t.oy - map.y[i] * t.scaleY - py);
             expect(got).toBeGreaterThanOrEqual(0);
             expect(dist(got)).toBeCloseTo(dist(expected), 9);
           }
@@ -148,11 +148,12 @@ describe('document map model', () => {
     const before = { zoom: 2, panX: 30, panY: -12 };
     const t0 = transformFor(800, 560, map.bounds, before);
     const [px, py] = [210, 340];
-    const dx = (px - t0.ox) / t0.scale;
-    const dy = (t0.oy - py) / t0.scale;
+    const dx = (px - t0.ox) / t0.scaleX;
+    const dy = (t0.oy - py) / t0.scaleY;
     const t1 = transformFor(800, 560, map.bounds, zoomAt(before, 3, px, py, 800, 560, map.bounds));
-    expect(t1.scale).toBeCloseTo(t0.scale * 3, 9);
-    expect(t1.ox + dx * t1.scale).toBeCloseTo(px, 6);
-    expect(t1.oy - dy * t1.scale).toBeCloseTo(py, 6);
+    expect(t1.scaleX).toBeCloseTo(t0.scaleX * 3, 9);
+    expect(t1.scaleY).toBeCloseTo(t0.scaleY * 3, 9);
+    expect(t1.ox + dx * t1.scaleX).toBeCloseTo(px, 6);
+    expect(t1.oy - dy * t1.scaleY).toBeCloseTo(py, 6);
   });
 });

@@ -185,9 +185,10 @@ function buildGrid(x: Float32Array, y: Float32Array, b: PreparedMap['bounds']): 
   return { cells, minX: b.minX, minY: b.minY, cellW, cellH, cellStart, items };
 }
 
-/** Screen transform: sx = ox + x * scale, sy = oy - y * scale (CSS pixels). */
+/** Screen transform: sx = ox + x * scaleX, sy = oy - y * scaleY (CSS pixels). */
 export interface MapTransform {
-  scale: number;
+  scaleX: number;
+  scaleY: number;
   ox: number;
   oy: number;
 }
@@ -200,20 +201,29 @@ export interface MapView {
 
 export const MAP_PADDING = 28;
 
+/**
+ * Each axis is stretched to the canvas on its own: the two dimensions' spreads differ
+ * (dimension 1 is mostly positive), and a map that fills its frame shows more. The
+ * ticks drawn on the axes keep the scales honest.
+ */
 export function transformFor(
   width: number,
   height: number,
   bounds: PreparedMap['bounds'],
   view: MapView,
 ): MapTransform {
-  const base = Math.min(
-    (width - 2 * MAP_PADDING) / (bounds.maxX - bounds.minX),
-    (height - 2 * MAP_PADDING) / (bounds.maxY - bounds.minY),
-  );
-  const scale = Math.max(base, 1e-6) * view.zoom;
+  const baseX = Math.max((width - 2 * MAP_PADDING) / (bounds.maxX - bounds.minX), 1e-6);
+  const baseY = Math.max((height - 2 * MAP_PADDING) / (bounds.maxY - bounds.minY), 1e-6);
+  const scaleX = baseX * view.zoom;
+  const scaleY = baseY * view.zoom;
   const cx = (bounds.minX + bounds.maxX) / 2;
   const cy = (bounds.minY + bounds.maxY) / 2;
-  return { scale, ox: width / 2 + view.panX - cx * scale, oy: height / 2 + view.panY + cy * scale };
+  return {
+    scaleX,
+    scaleY,
+    ox: width / 2 + view.panX - cx * scaleX,
+    oy: height / 2 + view.panY + cy * scaleY,
+  };
 }
 
 /** The view after zooming by `factor` around the screen point (px, py). */
@@ -229,15 +239,16 @@ export function zoomAt(
   const zoom = Math.min(200, Math.max(1, view.zoom * factor));
   if (zoom === 1) return { zoom: 1, panX: 0, panY: 0 };
   const t = transformFor(width, height, bounds, view);
-  const dx = (px - t.ox) / t.scale;
-  const dy = (t.oy - py) / t.scale;
-  const scale = (t.scale / view.zoom) * zoom;
+  const dx = (px - t.ox) / t.scaleX;
+  const dy = (t.oy - py) / t.scaleY;
+  const scaleX = (t.scaleX / view.zoom) * zoom;
+  const scaleY = (t.scaleY / view.zoom) * zoom;
   const cx = (bounds.minX + bounds.maxX) / 2;
   const cy = (bounds.minY + bounds.maxY) / 2;
   return {
     zoom,
-    panX: px - dx * scale - width / 2 + cx * scale,
-    panY: py + dy * scale - height / 2 - cy * scale,
+    panX: px - dx * scaleX - width / 2 + cx * scaleX,
+    panY: py + dy * scaleY - height / 2 - cy * scaleY,
   };
 }
 
@@ -254,13 +265,14 @@ export function hitTest(
   radius: number,
 ): number {
   const g = map.grid;
-  const dx = (px - t.ox) / t.scale;
-  const dy = (t.oy - py) / t.scale;
-  const r = radius / t.scale;
-  const x0 = Math.max(0, Math.floor((dx - r - g.minX) / g.cellW));
-  const x1 = Math.min(g.cells - 1, Math.floor((dx + r - g.minX) / g.cellW));
-  const y0 = Math.max(0, Math.floor((dy - r - g.minY) / g.cellH));
-  const y1 = Math.min(g.cells - 1, Math.floor((dy + r - g.minY) / g.cellH));
+  const dx = (px - t.ox) / t.scaleX;
+  const dy = (t.oy - py) / t.scaleY;
+  const rx = radius / t.scaleX;
+  const ry = radius / t.scaleY;
+  const x0 = Math.max(0, Math.floor((dx - rx - g.minX) / g.cellW));
+  const x1 = Math.min(g.cells - 1, Math.floor((dx + rx - g.minX) / g.cellW));
+  const y0 = Math.max(0, Math.floor((dy - ry - g.minY) / g.cellH));
+  const y1 = Math.min(g.cells - 1, Math.floor((dy + ry - g.minY) / g.cellH));
   let best = -1;
   let bestD = radius * radius;
   for (let cy = y0; cy <= y1; cy++) {
@@ -269,8 +281,8 @@ export function hitTest(
       for (let k = g.cellStart[c]; k < g.cellStart[c + 1]; k++) {
         const i = g.items[k];
         if (hidden.has(map.category[i])) continue;
-        const ex = t.ox + map.x[i] * t.scale - px;
-        const ey = t.oy - map.y[i] * t.scale - py;
+        const ex = t.ox + map.x[i] * t.scaleX - px;
+        const ey = t.oy - map.y[i] * t.scaleY - py;
         const d = ex * ex + ey * ey;
         if (d <= bestD) {
           bestD = d;

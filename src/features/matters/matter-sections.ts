@@ -36,8 +36,7 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     id: 'concepts',
     label: 'Concept space',
     path: 'concepts',
-    // Index health is open to every role with index.view; the other views need concepts.view.
-    permission: 'index.view',
+    permission: 'concepts.view',
     summary:
       'The spectrum, leading concepts, related terms, a map of the documents, groups and index health.',
   },

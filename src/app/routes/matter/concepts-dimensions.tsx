@@ -5,13 +5,14 @@ import {
   CONCEPT_DIMENSIONS_MAX,
   type DimensionsQuery,
 } from '../../../../shared/schemas/concepts';
-import { EmptyState, QueryBoundary, Select, SkeletonRows, Spinner } from '../../../components/ui';
+import { EmptyState, Select, SkeletonRows, Spinner } from '../../../components/ui';
 import {
   dimensionsQueryOptions,
   useDimensions,
 } from '../../../features/concepts/api/get-dimensions';
 import { DimensionCard } from '../../../features/concepts/components/dimension-card';
 import { useMatterPermission } from '../../../lib/authorization';
+import { ConceptQuery } from '../../../features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 
@@ -70,7 +71,7 @@ function DimensionsPage({ matterId }: { matterId: number }) {
           />
         </div>
       </div>
-      <QueryBoundary
+      <ConceptQuery
         query={dimensions}
         errorTitle="The concept dimensions could not be loaded"
         loading={<SkeletonRows rows={8} label="Loading the concept dimensions" />}
@@ -97,7 +98,7 @@ function DimensionsPage({ matterId }: { matterId: number }) {
             </>
           )
         }
-      </QueryBoundary>
+      </ConceptQuery>
     </div>
   );
 }

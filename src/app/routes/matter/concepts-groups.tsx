@@ -12,7 +12,6 @@ import {
   Button,
   EmptyState,
   Notice,
-  QueryBoundary,
   Select,
   SkeletonRows,
   TBody,
@@ -31,6 +30,7 @@ import { formatFigure } from '../../../features/concepts/format';
 import { fieldErrorOf } from '../../../lib/api-client';
 import { useMatterPermission } from '../../../lib/authorization';
 import { formatDateTime } from '../../../lib/format';
+import { ConceptQuery } from '../../../features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 
@@ -86,7 +86,7 @@ function GroupsPage({ matterId }: { matterId: number }) {
         finding one&apos;s way through the matter, not a classification of the documents.
       </p>
       <GroupingForm matterId={matterId} onCreated={choose} />
-      <QueryBoundary
+      <ConceptQuery
         query={groupings}
         errorTitle="The groupings could not be loaded"
         loading={<SkeletonRows rows={3} label="Loading the groupings" />}
@@ -110,18 +110,18 @@ function GroupsPage({ matterId }: { matterId: number }) {
                 data-testid="grouping-select"
               />
               {chosenId == null ? null : (
-                <QueryBoundary
+                <ConceptQuery
                   query={grouping}
                   errorTitle="The grouping could not be loaded"
                   loading={<SkeletonRows rows={6} label="Loading the groups" />}
                 >
                   {(detail) => <GroupingView matterId={matterId} detail={detail} />}
-                </QueryBoundary>
+                </ConceptQuery>
               )}
             </div>
           )
         }
-      </QueryBoundary>
+      </ConceptQuery>
     </div>
   );
 }

@@ -2,15 +2,15 @@ import type { QueryClient } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link, type LoaderFunctionArgs } from 'react-router';
 import type { HealthResponse } from '../../../../shared/schemas/concepts';
-import { Button, Notice, QueryBoundary, SkeletonRows, describeError } from '../../../components/ui';
+import { Button, Notice, SkeletonRows, describeError } from '../../../components/ui';
 import {
   conceptHealthQueryOptions,
   useConceptHealth,
 } from '../../../features/concepts/api/get-concept-health';
 import { formatCount, formatFigure, formatShare } from '../../../features/concepts/format';
 import { useRebuildIndex } from '../../../features/indexing/api/rebuild-index';
-import { isApiError } from '../../../lib/api-client';
 import { Can, useMatterPermission } from '../../../lib/authorization';
+import { ConceptQuery } from '../../../features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 
@@ -26,7 +26,7 @@ export const clientLoader =
 /** Index health: the serving version's figures in plain words, and when to rebuild. */
 export function ConceptsHealthRoute() {
   const matterId = useMatterId();
-  if (!useMatterPermission('index.view')) return <ConceptViewForbidden />;
+  if (!useMatterPermission('concepts.view')) return <ConceptViewForbidden />;
   return <HealthPage matterId={matterId} />;
 }
 
@@ -34,25 +34,18 @@ function HealthPage({ matterId }: { matterId: number }) {
   const health = useConceptHealth(matterId);
   return (
     <div data-testid="concepts-health">
-      {health.isError && isApiError(health.error) && health.error.status === 404 ? (
-        <Notice tone="info" title="No concept index yet">
-          {describeError(health.error)}
-        </Notice>
-      ) : (
-        <QueryBoundary
-          query={health}
-          errorTitle="The index health could not be loaded"
-          loading={<SkeletonRows rows={10} label="Loading the index health" />}
-        >
-          {(data) => <HealthBody matterId={matterId} data={data} />}
-        </QueryBoundary>
-      )}
+      <ConceptQuery
+        query={health}
+        errorTitle="The index health could not be loaded"
+        loading={<SkeletonRows rows={10} label="Loading the index health" />}
+      >
+        {(data) => <HealthBody matterId={matterId} data={data} />}
+      </ConceptQuery>
     </div>
   );
 }
 
 function HealthBody({ matterId, data }: { matterId: number; data: HealthResponse }) {
-  const canSeeConcepts = useMatterPermission('concepts.view');
   const rebuild = useRebuildIndex(matterId);
   const noise = data.messages.filter((m) => !m.code.startsWith('rebuild-'));
   const reasons = data.messages.filter((m) => m.code.startsWith('rebuild-'));
@@ -103,7 +96,7 @@ function HealthBody({ matterId, data }: { matterId: number; data: HealthResponse
           title={m.code === 'noise-dimensions' ? 'The last dimensions are noise' : 'Warning'}
         >
           {m.message}
-          {m.code === 'noise-dimensions' && canSeeConcepts ? (
+          {m.code === 'noise-dimensions' ? (
             <>
               {' '}
               <Link className="font-medium underline" to={`/matters/${matterId}/concepts/spectrum`}>

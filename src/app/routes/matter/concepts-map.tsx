@@ -6,7 +6,7 @@ import {
   type DimensionsResponse,
   type MapQuery,
 } from '../../../../shared/schemas/concepts';
-import { EmptyState, QueryBoundary, Select, SkeletonRows, Spinner } from '../../../components/ui';
+import { EmptyState, Select, SkeletonRows, Spinner } from '../../../components/ui';
 import { useDimensions } from '../../../features/concepts/api/get-dimensions';
 import {
   documentMapQueryOptions,
@@ -15,6 +15,7 @@ import {
 import { type AxisEnds, DocumentMap } from '../../../features/concepts/components/document-map';
 import type { ColourBy } from '../../../features/concepts/map-model';
 import { useMatterPermission } from '../../../lib/authorization';
+import { ConceptQuery } from '../../../features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 
@@ -122,7 +123,7 @@ function MapPage({ matterId }: { matterId: number }) {
           </span>
         ) : null}
       </div>
-      <QueryBoundary
+      <ConceptQuery
         query={map}
         errorTitle="The document map could not be loaded"
         loading={<SkeletonRows rows={10} label="Loading the document map" />}
@@ -154,7 +155,7 @@ function MapPage({ matterId }: { matterId: number }) {
             </figure>
           )
         }
-      </QueryBoundary>
+      </ConceptQuery>
     </div>
   );
 }

@@ -72,12 +72,12 @@ function SpectrumPage({ matterId }: { matterId: number }) {
                 <div className="rounded-md border border-line bg-panel p-4">
                   <SpectrumChart current={current} previous={previous} proposedK={proposedK} />
                 </div>
+                <VersionComparison current={current} previous={previous} buildMsOf={buildMsOf} />
               </div>
               <div className="min-w-0 space-y-4">
                 <Can permission="index.rebuild">
                   <RebuildForm matterId={matterId} current={current} onProposedK={setProposedK} />
                 </Can>
-                <VersionComparison current={current} previous={previous} buildMsOf={buildMsOf} />
                 <p className="text-xs text-ink-muted">
                   Energy kept is the share of the weighted term-document matrix&apos;s squared
                   Frobenius norm that the k leading dimensions hold; by the Eckart-Young theorem no
@@ -104,7 +104,7 @@ function Figure({
 }) {
   return (
     <div className="rounded-md border border-line bg-panel px-3 py-2">
-      <dt className="text-[11px] font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
+      <dt className="text-xs font-medium text-ink-muted">{label}</dt>
       <dd className="mt-0.5 text-lg font-semibold tabular-nums" data-testid={testId}>
         {children}
       </dd>

@@ -10,7 +10,6 @@ import {
   Button,
   EmptyState,
   Notice,
-  QueryBoundary,
   Select,
   SkeletonRows,
   inputClass,
@@ -22,6 +21,7 @@ import {
 import { ValueBar } from '../../../features/concepts/components/loading-bar';
 import { formatCount } from '../../../features/concepts/format';
 import { useMatterPermission } from '../../../lib/authorization';
+import { ConceptQuery } from '../../../features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { useMatterId } from './layout';
 
@@ -113,7 +113,7 @@ function TermsPage({ matterId }: { matterId: number }) {
       {query == null ? (
         <EmptyState title="Type a term to see its neighbours" />
       ) : (
-        <QueryBoundary
+        <ConceptQuery
           query={neighbours}
           errorTitle="The neighbours could not be found"
           loading={<SkeletonRows rows={8} label="Finding the nearest terms" />}
@@ -125,7 +125,7 @@ function TermsPage({ matterId }: { matterId: number }) {
               data={data}
             />
           )}
-        </QueryBoundary>
+        </ConceptQuery>
       )}
     </div>
   );

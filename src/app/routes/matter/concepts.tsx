@@ -1,5 +1,6 @@
 import { NavLink, Navigate, Outlet } from 'react-router';
 import type { MatterPermission } from '../../../../shared/roles';
+import { ReviewCaution } from '../../../components/review-caution';
 import { Notice, PageHeader } from '../../../components/ui';
 import { useRefreshOnNewVersion } from '../../../features/concepts/hooks/use-refresh-on-new-version';
 import { useMatterRole } from '../../../lib/authorization';
@@ -18,7 +19,7 @@ export const CONCEPT_VIEWS: readonly {
   { path: 'terms', label: 'Term neighbours', permission: 'concepts.view' },
   { path: 'map', label: 'Document map', permission: 'concepts.view' },
   { path: 'groups', label: 'Groups', permission: 'concepts.view' },
-  { path: 'health', label: 'Index health', permission: 'index.view' },
+  { path: 'health', label: 'Index health', permission: 'concepts.view' },
 ];
 
 /**
@@ -66,6 +67,7 @@ export function ConceptsLayout() {
         </ul>
       </nav>
       <Outlet />
+      <ReviewCaution compact className="mt-8" />
     </div>
   );
 }

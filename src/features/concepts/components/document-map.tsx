@@ -305,10 +305,7 @@ export function DocumentMap({
           → dimension {data.dims[0]}
           {axes.x.label ? ` (${axes.x.label})` : ''}
         </span>
-        <span
-          className="pointer-events-none absolute top-2 left-2 text-[11px] text-ink-muted"
-          style={{ writingMode: 'horizontal-tb' }}
-        >
+        <span className="pointer-events-none absolute top-2 right-2 text-[11px] text-ink-muted">
           ↑ dimension {data.dims[1]}
           {axes.y.label ? ` (${axes.y.label})` : ''}
         </span>
@@ -341,7 +338,7 @@ export function DocumentMap({
 }
 
 function screenOf(map: PreparedMap, t: ReturnType<typeof transformFor>, i: number) {
-  return { x: t.ox + map.x[i] * t.scale, y: t.oy - map.y[i] * t.scale };
+  return { x: t.ox + map.x[i] * t.scaleX, y: t.oy - map.y[i] * t.scaleY };
 }
 
 /** Where the first document sits on screen, for tests and tools ("x,y,documentId"). */
@@ -390,15 +387,18 @@ function drawPoints(
   ctx.setLineDash([]);
   ctx.fillStyle = '#545b63';
   ctx.font = '11px "Inter Variable", system-ui, sans-serif';
+  drawTicks(ctx, t, width, height);
   const clampY = (y: number) => Math.min(Math.max(y, 14), height - 22);
   const clampX = (x: number) => Math.min(Math.max(x, 6), width - 6);
-  ctx.textAlign = 'right';
-  ctx.fillText(`+ ${axes.x.positive}`, width - 8, clampY(t.oy - 6));
-  ctx.textAlign = 'left';
-  ctx.fillText(`− ${axes.x.negative}`, 8, clampY(t.oy - 6));
-  ctx.textAlign = 'left';
-  ctx.fillText(`+ ${axes.y.positive}`, clampX(t.ox + 6), 30);
-  ctx.fillText(`− ${axes.y.negative}`, clampX(t.ox + 6), height - 22);
+  const end = (text: string, sign: string, x: number, y: number, align: CanvasTextAlign) => {
+    if (!text) return;
+    ctx.textAlign = align;
+    ctx.fillText(`${sign} ${text}`, x, y);
+  };
+  end(axes.x.positive, '+', width - 8, clampY(t.oy - 6), 'right');
+  end(axes.x.negative, '−', 8, clampY(t.oy - 6), 'left');
+  end(axes.y.positive, '+', clampX(t.ox + 6), 30, 'left');
+  end(axes.y.negative, '−', clampX(t.ox + 6), height - 22, 'left');
 
   // Largest categories first, so small ones stay on top and visible.
   const order = map.categories
@@ -416,8 +416,8 @@ function drawPoints(
     ctx.beginPath();
     for (let k = map.catStart[index]; k < map.catStart[index + 1]; k++) {
       const i = map.order[k];
-      const sx = t.ox + map.x[i] * t.scale;
-      const sy = t.oy - map.y[i] * t.scale;
+      const sx = t.ox + map.x[i] * t.scaleX;
+      const sy = t.oy - map.y[i] * t.scaleY;
       if (sx < minX || sx > maxX || sy < minY || sy > maxY) continue;
       traceShape(ctx, category.shape, sx, sy, r);
       drawn++;
@@ -427,6 +427,39 @@ function drawPoints(
   }
   ctx.globalAlpha = 1;
   return drawn;
+}
+
+/** Tick marks with their cosine values along both axes, spaced for the zoom level. */
+function drawTicks(
+  ctx: CanvasRenderingContext2D,
+  t: ReturnType<typeof transformFor>,
+  width: number,
+  height: number,
+) {
+  const stepFor = (scale: number) =>
+    [0.05, 0.1, 0.25, 0.5, 1].find((step) => step * scale >= 70) ?? 1;
+  const axisY = Math.min(Math.max(t.oy, 0), height - 14);
+  const axisX = Math.min(Math.max(t.ox, 0), width - 30);
+  ctx.textAlign = 'center';
+  const sx = stepFor(t.scaleX);
+  for (let v = Math.ceil(-t.ox / t.scaleX / sx) * sx; t.ox + v * t.scaleX < width; v += sx) {
+    if (Math.abs(v) < 1e-9) continue;
+    const x = t.ox + v * t.scaleX;
+    ctx.fillRect(Math.round(x), axisY - 3, 1, 6);
+    ctx.fillText(formatTick(v), x, axisY + 15);
+  }
+  ctx.textAlign = 'left';
+  const sy = stepFor(t.scaleY);
+  for (let v = Math.ceil((t.oy - height) / t.scaleY / sy) * sy; t.oy - v * t.scaleY > 0; v += sy) {
+    if (Math.abs(v) < 1e-9) continue;
+    const y = t.oy - v * t.scaleY;
+    ctx.fillRect(axisX - 3, Math.round(y), 6, 1);
+    ctx.fillText(formatTick(v), axisX + 6, y + 4);
+  }
+}
+
+function formatTick(value: number): string {
+  return Number(value.toFixed(2)).toString().replace('-', '−');
 }
 
 function drawOverlay(

@@ -2,7 +2,6 @@ import {
   Bar,
   CartesianGrid,
   ComposedChart,
-  Legend,
   Line,
   ReferenceLine,
   ResponsiveContainer,
@@ -10,6 +9,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
+import type { ReactNode } from 'react';
 import type { SpectrumVersion } from '../../../../shared/schemas/concepts';
 import { formatFigure } from '../format';
 
@@ -80,7 +80,7 @@ export function SpectrumChart({
         aria-label={`Bar chart of the ${current.k} singular values of version ${current.version}, largest ${formatFigure(current.singularValues[0])}, with the cumulative energy kept reaching ${current.energyKept == null ? 'an unknown share' : `${(current.energyKept * 100).toFixed(1)}%`} at k = ${current.k}.`}
       >
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={data} margin={{ top: 18, right: 12, bottom: 18, left: 4 }}>
+          <ComposedChart data={data} margin={{ top: 22, right: 12, bottom: 18, left: 4 }}>
             <CartesianGrid stroke="#dcd7cc" strokeDasharray="2 4" vertical={false} />
             <XAxis
               dataKey="i"
@@ -133,14 +133,6 @@ export function SpectrumChart({
               }}
               labelFormatter={(label) => `Dimension ${String(label)}`}
               contentStyle={{ fontSize: 12, borderColor: '#dcd7cc' }}
-            />
-            <Legend
-              verticalAlign="top"
-              height={28}
-              iconSize={10}
-              formatter={(value: string) => (
-                <span className="text-xs text-ink">{SERIES_NAMES[value] ?? value}</span>
-              )}
             />
             <Bar
               yAxisId="sigma"
@@ -221,6 +213,7 @@ export function SpectrumChart({
           </ComposedChart>
         </ResponsiveContainer>
       </div>
+      <SpectrumLegend showPrevious={showPrevious} />
       <figcaption className="mt-2 text-[13px] text-ink-muted">
         Bars: the singular values σ₁ ≥ σ₂ ≥ … ≥ σ<sub>k</sub> of version {current.version} (left
         axis). Solid line: the share of the matrix&apos;s energy (squared Frobenius norm) the first
@@ -231,5 +224,68 @@ export function SpectrumChart({
           : ''}
       </figcaption>
     </figure>
+  );
+}
+
+/** The key to the series, drawn with the same marks as the chart (not colour alone). */
+function SpectrumLegend({ showPrevious }: { showPrevious: boolean }) {
+  const items: { key: string; mark: ReactNode }[] = [
+    {
+      key: 'sigma',
+      mark: <rect x="3" y="1" width="10" height="10" fill={ACCENT} fillOpacity={0.85} />,
+    },
+    {
+      key: 'energy',
+      mark: (
+        <>
+          <line x1="0" y1="6" x2="16" y2="6" stroke={ENERGY} strokeWidth="2" />
+          <circle cx="8" cy="6" r="2.5" fill={ENERGY} />
+        </>
+      ),
+    },
+  ];
+  if (showPrevious) {
+    items.push(
+      {
+        key: 'previousSigma',
+        mark: (
+          <line
+            x1="0"
+            y1="6"
+            x2="16"
+            y2="6"
+            stroke={PREVIOUS}
+            strokeWidth="1.5"
+            strokeDasharray="6 4"
+          />
+        ),
+      },
+      {
+        key: 'previousEnergy',
+        mark: (
+          <line
+            x1="0"
+            y1="6"
+            x2="16"
+            y2="6"
+            stroke={PREVIOUS}
+            strokeWidth="1.5"
+            strokeDasharray="1 3"
+          />
+        ),
+      },
+    );
+  }
+  return (
+    <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink" aria-label="Key">
+      {items.map((item) => (
+        <li key={item.key} className="flex items-center gap-1.5">
+          <svg width="16" height="12" aria-hidden="true">
+            {item.mark}
+          </svg>
+          {SERIES_NAMES[item.key]}
+        </li>
+      ))}
+    </ul>
   );
 }

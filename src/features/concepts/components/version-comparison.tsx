@@ -55,7 +55,7 @@ export function VersionComparison({
     },
     {
       label: 'Energy kept',
-      hint: 'Share of ‖A‖²_F the k dimensions keep',
+      hint: 'Share of the squared Frobenius norm kept',
       testId: 'energy',
       value: (v) => v.energyKept,
       show: (v) => formatShare(typeof v === 'number' ? v : null),
@@ -70,7 +70,7 @@ export function VersionComparison({
     },
     {
       label: 'Condition number',
-      hint: 'σ₁ / σ_k',
+      hint: 'σ₁ / σₖ',
       testId: 'condition',
       value: (v) => conditionNumberOf(v.singularValues),
       show: (v) => formatFigure(typeof v === 'number' ? v : null),
