@@ -3,6 +3,7 @@ import * as initial from './2026_12_01_0001_initial';
 import * as indexBlobs from './2026_12_01_0100_index_blobs';
 import * as accountSetupTokens from './2026_12_02_0200_account_setup_tokens';
 import * as conceptInsights from './2026_12_02_0400_concept_insights';
+import * as matterIndexSettings from './2026_12_02_0500_matter_index_settings';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -11,4 +12,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_01_0100_index_blobs': indexBlobs,
   '2026_12_02_0200_account_setup_tokens': accountSetupTokens,
   '2026_12_02_0400_concept_insights': conceptInsights,
+  '2026_12_02_0500_matter_index_settings': matterIndexSettings,
 };

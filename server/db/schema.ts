@@ -27,6 +27,9 @@ export interface MattersTable {
   control_prefix: string;
   next_control_seq: Generated<number>;
   current_index_id: number | null;
+  /** k and weighting of the last requested rebuild; null: not chosen (k follows size). */
+  index_k: Generated<number | null>;
+  index_weighting: Generated<string | null>;
   created_by: string | null;
   created_at: string;
 }

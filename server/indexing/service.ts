@@ -246,6 +246,17 @@ export class IndexService {
     });
     if (jobId === null)
       throw conflict('An index build is already queued or running for this matter.');
+    // What the lead chose becomes the matter's setting for later automatic rebuilds.
+    if (body.k !== undefined || body.weighting !== undefined) {
+      await this.db
+        .updateTable('matters')
+        .set({
+          ...(body.k !== undefined ? { index_k: body.k } : {}),
+          ...(body.weighting !== undefined ? { index_weighting: body.weighting } : {}),
+        })
+        .where('id', '=', matterId)
+        .execute();
+    }
     await recordAudit(this.db, {
       actorId: actor.id,
       actorEmail: actor.email,
@@ -261,24 +272,20 @@ export class IndexService {
   }
 
   /**
-   * The settings a build uses: those asked for, else the serving version's, else defaults.
-   * A k nobody asked for (requestedK null) is chosen afresh from the matter's size at
-   * every build, so a matter that grows gets more axes (automaticK).
+   * The settings a build uses: those asked for in this request, else the matter's chosen
+   * ones (the last requested rebuild's), else log-entropy and a k that follows the
+   * matter's size at every build, so a growing matter gets more axes (automaticK).
    */
   private async buildSettings(matterId: number, payload: BuildIndexPayload) {
-    let requestedK: number | null = payload.k ?? null;
-    let weighting = payload.weighting as Weighting | undefined;
-    const currentId = await currentIndexIdOf(this.db, matterId);
-    const current = currentId !== null ? await findIndexVersion(this.db, currentId) : undefined;
-    if (current) {
-      const params = parseParams(current);
-      if (requestedK === null && typeof params.requestedK === 'number') {
-        requestedK = params.requestedK;
-      }
-      weighting ??= current.weighting as Weighting;
-    }
+    const chosen = await this.db
+      .selectFrom('matters')
+      .select(['index_k', 'index_weighting'])
+      .where('id', '=', matterId)
+      .executeTakeFirst();
+    const requestedK = payload.k ?? chosen?.index_k ?? null;
+    const weighting = (payload.weighting ?? chosen?.index_weighting ?? 'log-entropy') as Weighting;
     const k = requestedK ?? automaticK(await countExtracted(this.db, matterId));
-    return { k, requestedK, weighting: weighting ?? 'log-entropy' };
+    return { k, requestedK, weighting };
   }
 
   /** The build-index job: worker build, then the one-transaction switch, then catch-up fold-in. */
