@@ -177,7 +177,11 @@ function ActivityLog({ matterId }: { matterId: number }) {
                         <span title={event.action}>{actionLabel(event.action)}</span>
                       </Td>
                       <Td className="text-[13px] text-ink-muted">
-                        {[targetOf(event), describeDetail(event.detail)]
+                        {[
+                          targetOf(event),
+                          // The target's name is already shown in front of the detail.
+                          describeDetail(event.detail, event.targetType === 'user' ? ['name'] : []),
+                        ]
                           .filter(Boolean)
                           .join(' · ') || '—'}
                       </Td>
@@ -220,9 +224,13 @@ function ActivityLog({ matterId }: { matterId: number }) {
   );
 }
 
-function describeDetail(detail: Record<string, unknown> | null | undefined): string {
+function describeDetail(
+  detail: Record<string, unknown> | null | undefined,
+  omit: readonly string[] = [],
+): string {
   if (!detail) return '';
   return Object.entries(detail)
+    .filter(([key]) => !omit.includes(key))
     .filter(([, value]) => value !== null && value !== undefined && value !== '')
     .map(
       ([key, value]) =>
