@@ -16,6 +16,7 @@ import type {
 } from '../../shared/schemas/concepts';
 import type { IndexStateResponse } from '../../shared/schemas/indexing';
 import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
+import { groupMemberIdsSubquery } from './queries';
 import { conceptsServiceFor, documentIdsInGroup } from './service';
 
 // Invented texts (demo-style): five about a flour mill and a bakery, five about a lease.
@@ -215,6 +216,15 @@ describe('concept space over HTTP', () => {
     for (const g of body.groups) {
       const ids = await documentIdsInGroup(t.ctx, matter.id, body.grouping.id, g.id);
       expect(ids).toHaveLength(g.size);
+      // The subquery form search can put in its WHERE gives the same documents.
+      const viaSql = await t.ctx.db
+        .selectFrom('documents as d')
+        .select('d.id')
+        .where('d.matter_id', '=', matter.id)
+        .where('d.id', 'in', groupMemberIdsSubquery(t.ctx.db, g.id))
+        .orderBy('d.id')
+        .execute();
+      expect(viaSql.map((r) => r.id)).toEqual(ids);
       const topics = new Set(ids!.map((id) => topic.get(id)));
       expect(topics.size).toBe(1);
       seen.add([...topics][0]!);

@@ -280,3 +280,15 @@ export async function memberIdsOf(
     .execute();
   return rows.map((r) => r.document_id);
 }
+
+/**
+ * For search filters: the members of a concept group as a subquery, e.g.
+ * `.where('d.id', 'in', groupMemberIdsSubquery(db, filters.groupId))`. Scope the outer
+ * query to the matter (d.matter_id) as usual; a group of another matter then matches nothing.
+ */
+export function groupMemberIdsSubquery(db: Executor, groupId: number) {
+  return db
+    .selectFrom('concept_group_members')
+    .select('document_id')
+    .where('group_id', '=', groupId);
+}
