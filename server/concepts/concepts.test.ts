@@ -229,6 +229,16 @@ describe('concept space over HTTP', () => {
       expect(topics.size).toBe(1);
       seen.add([...topics][0]!);
       expect(g.topTerms.length).toBeGreaterThan(0);
+      // As a search filter: keyword and concept results stay inside the group.
+      for (const mode of ['keyword', 'concept'] as const) {
+        const found = await attorney
+          .post(`/api/matters/${matter.id}/search`)
+          .send({ query: BAKERY[0], mode, filters: { groupId: g.id }, limit: 100 });
+        expect(found.status, mode).toBe(200);
+        const hitIds = (found.body.hits as { documentId: number }[]).map((h) => h.documentId);
+        for (const id of hitIds) expect(ids, `${mode} hit ${id}`).toContain(id);
+        if (topic.get(ids![0]) === 'bakery') expect(hitIds.length, mode).toBeGreaterThan(0);
+      }
     }
     expect(seen).toEqual(new Set(['bakery', 'lease']));
     // A group of another grouping, or of nothing, is not found.

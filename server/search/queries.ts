@@ -45,7 +45,8 @@ export function restricts(filters: SearchFilters): boolean {
     filters.dateTo ||
     filters.docTypes?.length ||
     filters.codeIds?.length ||
-    filters.uncodedOnly,
+    filters.uncodedOnly ||
+    filters.groupId !== undefined,
   );
 }
 
@@ -76,6 +77,13 @@ export function filterCondition(filters: SearchFilters): RawBuilder<SqlBool> {
   }
   if (filters.uncodedOnly)
     parts.push(sql`NOT EXISTS (SELECT 1 FROM document_codes dc WHERE dc.document_id = d.id)`);
+  // A concept group (server/concepts k-means); one of another matter matches nothing,
+  // since every search is already limited to the matter's documents.
+  if (filters.groupId !== undefined) {
+    parts.push(
+      sql`d.id IN (SELECT gm.document_id FROM concept_group_members gm WHERE gm.group_id = ${filters.groupId})`,
+    );
+  }
   return sql<SqlBool>`(${sql.join(parts, sql` AND `)})`;
 }
 

@@ -57,7 +57,7 @@ export const searchFiltersSchema = z
     uncodedOnly: z.boolean({ error: 'must be true or false' }).optional(),
     /** Exact duplicates (same SHA-256) are hidden by default; true lists each after its first copy. */
     includeDuplicates: z.boolean({ error: 'must be true or false' }).optional(),
-    /** Reserved for concept groups; ignored until the matter has groups. */
+    /** A concept group (k-means over the document vectors, server/concepts); an unknown id matches nothing. */
     groupId: idSchema.optional(),
   })
   .refine((f) => !(f.dateFrom && f.dateTo && f.dateFrom > f.dateTo), {

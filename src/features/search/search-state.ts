@@ -66,6 +66,8 @@ export function parseSearchState(params: URLSearchParams): SearchState {
   if (types?.length) filters.docTypes = types;
   if (params.get('uncoded') === '1') filters.uncodedOnly = true;
   if (params.get('dups') === '1') filters.includeDuplicates = true;
+  const groupId = positive(params.get('group'));
+  if (groupId) filters.groupId = groupId;
   const size = positive(params.get('size'));
   return {
     query: params.get('q') ?? '',
@@ -103,6 +105,7 @@ export function searchStateToParams(state: SearchState): URLSearchParams {
   if (f.codeIds?.length) params.set('codes', f.codeIds.join(','));
   if (f.uncodedOnly) params.set('uncoded', '1');
   if (f.includeDuplicates) params.set('dups', '1');
+  if (f.groupId) params.set('group', String(f.groupId));
   if (state.sort) {
     params.set('sort', state.sort.field);
     params.set('dir', state.sort.direction);
