@@ -15,7 +15,7 @@ const DOC_TYPES: Option[] = Object.entries(DOC_TYPE_LABELS)
   .filter(([type]) => type !== 'zip' && type !== 'unknown')
   .map(([id, label]) => ({ id, label }));
 
-/** Filters applied to every mode: custodian, dates, type, codes, uncoded only, duplicates. */
+/** Filters applied to every mode: custodian, dates, type, codes, uncoded only, duplicates, concept group. */
 export function SearchFiltersBar({
   filters,
   onChange,
@@ -117,6 +117,22 @@ export function SearchFiltersBar({
           />
           Show exact duplicates
         </label>
+        {filters.groupId !== undefined ? (
+          <span
+            className="inline-flex items-center gap-1 rounded border border-line px-2 py-0.5"
+            data-testid="filter-group"
+          >
+            Concept group #{filters.groupId}
+            <button
+              type="button"
+              className="text-ink-muted hover:text-ink"
+              aria-label="Remove the concept group filter"
+              onClick={() => set('groupId', undefined)}
+            >
+              ×
+            </button>
+          </span>
+        ) : null}
         {active ? (
           <Button
             size="sm"
