@@ -9,12 +9,12 @@
 
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir, cpus, totalmem } from 'node:os';
+import { tmpdir, cpus, loadavg, totalmem } from 'node:os';
 import { join } from 'node:path';
 import SQLite from 'better-sqlite3';
 import { Kysely, Migrator, SqliteDialect } from 'kysely';
 import { generateCollection } from './synthetic';
-import { truncatedSvd, type TruncatedSvd } from '../engine/linalg/svd';
+import { truncatedSvd, type SvdOptions, type TruncatedSvd } from '../engine/linalg/svd';
 import { energyKept, orthogonalityError } from '../engine/linalg/diagnostics';
 import { frobeniusNormSq, nnzOf, type CsrMatrix } from '../engine/sparse/csr';
 import { writeMatrixMarket } from '../engine/io/matrix-market';
@@ -36,6 +36,20 @@ const sizes = sizesArg
     ? [10_000]
     : [10_000, 50_000, 100_000];
 const ks = [100, 300];
+// The accurate default and the fast configurations, all measured at the same k on the
+// same matrix. 'randomized, q = 2, p = 20' is scikit-learn's randomized_svd(n_iter=2,
+// n_oversamples=20) algorithm; q = 4 spends two more power iterations for accuracy.
+const CONFIGS: { name: string; options: Partial<SvdOptions> }[] = [
+  { name: 'default (block-krylov)', options: {} },
+  {
+    name: 'randomized, q = 2, p = 20',
+    options: { method: 'randomized', powerIterations: 2, oversample: 20 },
+  },
+  {
+    name: 'randomized, q = 4, p = 20',
+    options: { method: 'randomized', powerIterations: 4, oversample: 20 },
+  },
+];
 const QUERIES = 200;
 
 const peakMb = () => process.resourceUsage().maxRSS / 1024;
@@ -223,26 +237,37 @@ async function main() {
       svd: [] as unknown[],
     };
     const svds: Record<number, TruncatedSvd> = {};
-    for (const k of ks) {
-      const svd = truncatedSvd(a, { k, seed: 1, threads: 2 });
-      svds[k] = svd;
-      const row = {
-        k,
-        ms: svd.ms,
-        method: svd.method,
-        sigma1: svd.s[0],
-        sigmaK: svd.s[k - 1],
-        energy: energyKept(svd.s, fro),
-        orthogonalityU: orthogonalityError(svd.U, svd.rows, k),
-        orthogonalityV: orthogonalityError(svd.V, svd.cols, k),
-        peakRssMb: peakMb(),
-        values: Array.from(svd.s),
-      };
-      (entry.svd as unknown[]).push(row);
-      log(
-        `svd k=${k}: ${svd.ms.toFixed(0)} ms (${svd.method}), sigma_1 ${svd.s[0].toFixed(4)}, sigma_k ${svd.s[k - 1].toFixed(4)}, energy ${row.energy.toFixed(4)}, peak RSS ${row.peakRssMb.toFixed(0)} MB`,
-      );
-    }
+    const others: { config: string; svd: TruncatedSvd }[] = [];
+    const loadAtSvd: Record<string, number> = {};
+    for (const k of ks)
+      for (const config of CONFIGS) {
+        const svd = truncatedSvd(a, { k, seed: 1, threads: 2, ...config.options });
+        if (config === CONFIGS[0]) svds[k] = svd;
+        else
+          others.push({
+            config: config.name,
+            svd: { ...svd, U: new Float64Array(0), V: new Float64Array(0) },
+          });
+        const row = {
+          k,
+          config: config.name,
+          ms: svd.ms,
+          method: svd.method,
+          sigma1: svd.s[0],
+          sigmaK: svd.s[k - 1],
+          energy: energyKept(svd.s, fro),
+          orthogonalityU: orthogonalityError(svd.U, svd.rows, k),
+          orthogonalityV: orthogonalityError(svd.V, svd.cols, k),
+          peakRssMb: peakMb(),
+          values: Array.from(svd.s),
+          loadAverage: loadavg(),
+        };
+        loadAtSvd[`${k}|${config.name}`] = row.loadAverage[0];
+        (entry.svd as unknown[]).push(row);
+        log(
+          `svd k=${k} [${config.name}]: ${svd.ms.toFixed(0)} ms (${svd.method}), sigma_1 ${svd.s[0].toFixed(4)}, sigma_k ${svd.s[k - 1].toFixed(4)}, energy ${row.energy.toFixed(4)}, peak RSS ${row.peakRssMb.toFixed(0)} MB`,
+        );
+      }
     if (python) {
       log(`reference: ${python} bench/reference.py ${mtx} ${ks.join(' ')}`);
       const r = spawnSync(python, [join(root, 'bench', 'reference.py'), mtx, ...ks.map(String)], {
@@ -261,15 +286,16 @@ async function main() {
           versions: Record<string, string>;
         };
         entry.reference = { readS: ref.read_s, versions: ref.versions, runs: [] as unknown[] };
-        for (const run of ref.runs) {
-          const ours = svds[run.k];
+        const compareRun = (run: ReferenceRun, config: string, ours: TruncatedSvd) => {
           const oursErr = relErrors(ours.s, run.propack_values, run.k);
           const sklErr = relErrors(run.randomized_values, run.propack_values, run.k);
           const cmp = {
             k: run.k,
+            config,
             propackMs: run.propack_s * 1000,
             sklearnMs: run.randomized_s * 1000,
             quarryMs: ours.ms,
+            loadAverage1m: loadAtSvd[`${run.k}|${config}`],
             quarryVsSklearnTime: ours.ms / (run.randomized_s * 1000),
             quarryVsPropackTime: ours.ms / (run.propack_s * 1000),
             quarryMaxRelErr: oursErr.max,
@@ -279,8 +305,16 @@ async function main() {
           };
           (entry.reference as { runs: unknown[] }).runs.push(cmp);
           log(
-            `k=${run.k}: PROPACK ${run.propack_s.toFixed(1)} s, sklearn ${run.randomized_s.toFixed(1)} s, Quarry ${(ours.ms / 1000).toFixed(1)} s (x${cmp.quarryVsSklearnTime.toFixed(2)} of sklearn, x${cmp.quarryVsPropackTime.toFixed(2)} of PROPACK); max rel. error vs PROPACK: Quarry ${oursErr.max.toExponential(2)}, sklearn ${sklErr.max.toExponential(2)}; median: Quarry ${oursErr.median.toExponential(2)}, sklearn ${sklErr.median.toExponential(2)}`,
+            `k=${run.k} [${config}]: PROPACK ${run.propack_s.toFixed(1)} s, sklearn ${run.randomized_s.toFixed(1)} s, Quarry ${(ours.ms / 1000).toFixed(1)} s (x${cmp.quarryVsSklearnTime.toFixed(2)} of sklearn, x${cmp.quarryVsPropackTime.toFixed(2)} of PROPACK); max rel. error vs PROPACK: Quarry ${oursErr.max.toExponential(2)}, sklearn ${sklErr.max.toExponential(2)}; median: Quarry ${oursErr.median.toExponential(2)}, sklearn ${sklErr.median.toExponential(2)}`,
           );
+        };
+        for (const run of ref.runs) {
+          for (const ours of [
+            { config: CONFIGS[0].name, svd: svds[run.k] },
+            ...others.filter((o) => o.svd.k === run.k),
+          ]) {
+            compareRun(run, ours.config, ours.svd);
+          }
         }
       }
     } else if (docs === sizes[0]) {
@@ -369,7 +403,9 @@ function writePerformanceDoc(report: {
   );
   lines.push('|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|');
   for (const r of report.results) {
-    const svd = r.svd as { k: number; ms: number }[];
+    const svd = (r.svd as { k: number; ms: number; config?: string }[]).filter(
+      (row) => row.config === undefined || row.config === CONFIGS[0].name,
+    );
     const p = r.persist as { saveMs: number; loadMs: number };
     const q = r.query as { p50: number; p95: number };
     lines.push(
@@ -378,10 +414,11 @@ function writePerformanceDoc(report: {
   }
   const refRows: string[] = [];
   for (const r of report.results) {
-    const ref = r.reference as { runs?: Record<string, number>[]; error?: string } | undefined;
+    const ref = r.reference as
+      { runs?: (Record<string, number> & { config?: string })[]; error?: string } | undefined;
     for (const run of ref?.runs ?? []) {
       refRows.push(
-        `| ${String(r.docs)} | ${run.k} | ${f(run.propackMs / 1000, 1)} | ${f(run.sklearnMs / 1000, 1)} | ${f(run.quarryMs / 1000, 1)} | ${f(run.quarryVsSklearnTime, 2)} | ${f(run.quarryVsPropackTime, 2)} | ${run.quarryMaxRelErr.toExponential(1)} / ${run.quarryMedianRelErr.toExponential(1)} | ${run.sklearnMaxRelErr.toExponential(1)} / ${run.sklearnMedianRelErr.toExponential(1)} |`,
+        `| ${String(r.docs)} | ${run.k} | ${String(run.config ?? CONFIGS[0].name)} | ${f(run.propackMs / 1000, 1)} | ${f(run.sklearnMs / 1000, 1)} | ${f(run.quarryMs / 1000, 1)} | ${f(run.quarryVsSklearnTime, 2)} | ${f(run.quarryVsPropackTime, 2)} | ${run.quarryMaxRelErr.toExponential(1)} / ${run.quarryMedianRelErr.toExponential(1)} | ${run.sklearnMaxRelErr.toExponential(1)} / ${run.sklearnMedianRelErr.toExponential(1)} | ${f(run.loadAverage1m, 1)} |`,
       );
     }
   }
@@ -392,9 +429,9 @@ function writePerformanceDoc(report: {
       '',
     );
     lines.push(
-      '| docs | k | PROPACK s | sklearn s | Quarry s | Quarry/sklearn time | Quarry/PROPACK time | Quarry rel. err max / median | sklearn rel. err max / median |',
+      '| docs | k | Quarry configuration | PROPACK s | sklearn s | Quarry s | Quarry/sklearn time | Quarry/PROPACK time | Quarry rel. err max / median | sklearn rel. err max / median | load avg (1 min) after Quarry run |',
     );
-    lines.push('|---:|---:|---:|---:|---:|---:|---:|---:|---:|');
+    lines.push('|---:|---:|---|---:|---:|---:|---:|---:|---:|---:|---:|');
     lines.push(...refRows);
   } else {
     lines.push('', 'SciPy / scikit-learn were not importable: no PROPACK comparison in this run.');

@@ -301,7 +301,9 @@ export function householderQr(y: Float64Array, n: number, b: number): Float64Arr
 /**
  * C (w x b, row-major) += X[:, 0:w]^T Z over rows [rowStart, rowEnd), where X is n x
  * strideX (its first w columns used) and Z is n x b. Chunked transposition as in
- * gramAccumulate, so each entry is a contiguous dot product.
+ * gramAccumulate, so each entry is a contiguous dot product. With upperOnly, only
+ * entries j >= a - 3 (rounded to the blocks of four) are formed: enough for the upper
+ * triangle of a product known to be symmetric.
  */
 export function crossAccumulate(
   x: Float64Array,
@@ -312,6 +314,7 @@ export function crossAccumulate(
   c: Float64Array,
   rowStart: number,
   rowEnd: number,
+  upperOnly = false,
 ): void {
   const R = GRAM_CHUNK;
   const xt = new Float64Array(w * R);
@@ -330,7 +333,7 @@ export function crossAccumulate(
       const a1 = a0 + R;
       const a2 = a1 + R;
       const a3 = a2 + R;
-      for (let j = 0; j < b; j++) {
+      for (let j = upperOnly ? a : 0; j < b; j++) {
         const jo = j * R;
         let s0 = 0;
         let s1 = 0;
@@ -351,7 +354,7 @@ export function crossAccumulate(
     }
     for (; a < w; a++) {
       const ao = a * R;
-      for (let j = 0; j < b; j++) {
+      for (let j = upperOnly ? a : 0; j < b; j++) {
         const jo = j * R;
         let s = 0;
         for (let r = 0; r < len; r++) s += xt[ao + r] * zt[jo + r];

@@ -22,6 +22,13 @@ function gather(a, x, b, y, rowStart, rowEnd) {
     for (let j = 0; j < b; j++) y[yo + j] = 0;
     let p = rowPtr[i];
     const end = rowPtr[i + 1];
+    for (; p + 7 < end; p += 8) {
+      const v0 = values[p], v1 = values[p + 1], v2 = values[p + 2], v3 = values[p + 3];
+      const v4 = values[p + 4], v5 = values[p + 5], v6 = values[p + 6], v7 = values[p + 7];
+      const o0 = colIdx[p] * b, o1 = colIdx[p + 1] * b, o2 = colIdx[p + 2] * b, o3 = colIdx[p + 3] * b;
+      const o4 = colIdx[p + 4] * b, o5 = colIdx[p + 5] * b, o6 = colIdx[p + 6] * b, o7 = colIdx[p + 7] * b;
+      for (let j = 0; j < b; j++) y[yo + j] += v0 * x[o0 + j] + v1 * x[o1 + j] + v2 * x[o2 + j] + v3 * x[o3 + j] + v4 * x[o4 + j] + v5 * x[o5 + j] + v6 * x[o6 + j] + v7 * x[o7 + j];
+    }
     for (; p + 3 < end; p += 4) {
       const v0 = values[p], v1 = values[p + 1], v2 = values[p + 2], v3 = values[p + 3];
       const o0 = colIdx[p] * b, o1 = colIdx[p + 1] * b, o2 = colIdx[p + 2] * b, o3 = colIdx[p + 3] * b;

@@ -24,3 +24,17 @@ export function fillGaussian(out: Float64Array, seed: number): void {
     if (i + 1 < out.length) out[i + 1] = radius * Math.sin(2 * Math.PI * u2);
   }
 }
+
+/**
+ * Fills out with independent random signs (+1 / -1, Rademacher), 32 per generator
+ * call: a test matrix for randomized range finders (Achlioptas 2003; Martinsson &
+ * Tropp, Acta Numerica 2020, sec. 9) far cheaper to draw than Gaussians.
+ */
+export function fillRademacher(out: Float64Array, seed: number): void {
+  const rand = mulberry32(seed);
+  for (let i = 0; i < out.length; i += 32) {
+    const bits = (rand() * 4294967296) >>> 0;
+    const end = Math.min(32, out.length - i);
+    for (let j = 0; j < end; j++) out[i + j] = (bits >>> j) & 1 ? 1 : -1;
+  }
+}
