@@ -256,6 +256,11 @@ export function DocumentMap({
           {drawn.toLocaleString()} of {map.count.toLocaleString()} documents drawn
           {view.zoom > 1 ? ` · zoom ×${view.zoom.toFixed(1)}` : ''}
         </span>
+        <span className="ml-auto text-xs text-ink-muted">
+          Across → dimension {data.dims[0]}
+          {axes.x.label ? ` (${axes.x.label})` : ''} · up ↑ dimension {data.dims[1]}
+          {axes.y.label ? ` (${axes.y.label})` : ''}
+        </span>
       </div>
       <div
         ref={wrapRef}
@@ -301,14 +306,6 @@ export function DocumentMap({
         {hovered >= 0 && tipAt ? (
           <MapTooltip data={data} index={hovered} x={tipAt.x} y={tipAt.y} width={width} />
         ) : null}
-        <span className="pointer-events-none absolute right-2 bottom-1 text-[11px] text-ink-muted">
-          → dimension {data.dims[0]}
-          {axes.x.label ? ` (${axes.x.label})` : ''}
-        </span>
-        <span className="pointer-events-none absolute top-2 right-2 text-[11px] text-ink-muted">
-          ↑ dimension {data.dims[1]}
-          {axes.y.label ? ` (${axes.y.label})` : ''}
-        </span>
       </div>
       <p id={instructionsId} className="text-xs text-ink-muted">
         Point at a mark for its document; click it (or press Enter) to open it. Scroll or use + and
@@ -442,6 +439,11 @@ function drawPoints(
   const clampX = (x: number) => Math.min(Math.max(x, 6), width - 6);
   const end = (text: string, sign: string, x: number, y: number, align: CanvasTextAlign) => {
     if (!text) return;
+    // A label that would run off the right edge is right-aligned to it instead.
+    if (align === 'left' && x + ctx.measureText(`${sign} ${text}`).width > width - 8) {
+      align = 'right';
+      x = width - 8;
+    }
     ctx.textAlign = align;
     haloText(ctx, `${sign} ${text}`, x, y);
   };
