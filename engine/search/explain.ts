@@ -16,6 +16,7 @@
 import type { ConceptSpace, DocId, WeightedTerms } from '../index/concept-space';
 import { analyze } from '../text/analyzer';
 import { topCosine } from './top-n';
+import { allocateRows } from './simd-dot';
 
 export interface TermContribution {
   /** The index term (a Porter stem) and the word to show for it. */
@@ -178,7 +179,9 @@ function scaledTermRows(space: ConceptSpace, power: number) {
   let entry = perSpace.get(power);
   if (!entry) {
     const k = space.k;
-    const rows = new Float32Array(space.termVectors.length);
+    // In WebAssembly memory when possible, so topCosine takes the SIMD kernel: a term
+    // vocabulary can be several times larger than the document set.
+    const rows = allocateRows(space.nTerms, k);
     const invNorms = new Float32Array(space.nTerms);
     const scale = Float64Array.from(space.sigma, (s) => Math.pow(s, power));
     for (let i = 0; i < space.nTerms; i++) {
