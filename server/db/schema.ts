@@ -1,4 +1,10 @@
 import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type {
+  IndexBlobsTable,
+  IndexDocsTable,
+  IndexTermsTable,
+  IndexVersionsTable as EngineIndexVersionsTable,
+} from '../../engine/index/persist';
 
 // Table types for Kysely. Rows of these types never leave the server: each
 // feature's service maps them to the API types in shared/schemas.
@@ -143,53 +149,13 @@ export interface JobsTable {
 
 export type IndexStatus = 'building' | 'ready' | 'failed' | 'superseded';
 
-export interface IndexVersionsTable {
-  id: Generated<number>;
-  matter_id: number;
-  version: number;
+// The index tables' shapes are the engine's (engine/index/persist.ts reads and writes
+// them); the server only narrows the status to its known values.
+export interface IndexVersionsTable extends Omit<EngineIndexVersionsTable, 'status'> {
   status: IndexStatus;
-  k: number;
-  weighting: string;
-  n_docs: Generated<number>;
-  n_terms: Generated<number>;
-  nnz: Generated<number>;
-  singular_values: Uint8Array | null;
-  frobenius_sq: number | null;
-  energy: number | null;
-  orthogonality_u: number | null;
-  orthogonality_v: number | null;
-  build_ms: number | null;
-  peak_rss_mb: number | null;
-  params: Generated<string>;
-  error: string | null;
-  job_id: number | null;
-  requested_by: string | null;
-  created_at: string;
-  completed_at: string | null;
 }
 
-export interface IndexTermsTable {
-  index_id: number;
-  term_id: number;
-  term: string;
-  df: number;
-  global_weight: number;
-  vector: Uint8Array;
-}
-
-export interface IndexDocsTable {
-  index_id: number;
-  document_id: number;
-  vector: Uint8Array;
-  folded_in: Generated<number>;
-}
-
-/** One BLOB per matrix of an index version (engine/index/persist.ts). */
-export interface IndexBlobsTable {
-  index_id: number;
-  name: string;
-  data: Uint8Array;
-}
+export type { IndexBlobsTable, IndexDocsTable, IndexTermsTable };
 
 /** A matter lead's name for a concept dimension of an index version (issue 6). */
 export interface IndexDimensionLabelsTable {
