@@ -10,6 +10,7 @@ import {
   describeBrowser,
   launchBrowser,
   screenshotOnFailure,
+  signIn,
   startQuarry,
 } from './harness';
 
@@ -43,15 +44,6 @@ describeBrowser('account set-up link end to end', () => {
     await quarry?.close();
   });
 
-  async function signIn(p: Page, email: string, password: string) {
-    await p.goto(`${quarry.baseUrl}/sign-in`);
-    await p.getByLabel('E-mail').fill(email);
-    await p.getByLabel('Password').fill(password);
-    await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL(`${quarry.baseUrl}/matters`);
-    await expect.poll(() => p.getByRole('heading', { name: 'My matters' }).isVisible()).toBe(true);
-  }
-
   async function signOut(p: Page) {
     await p.getByTestId('sign-out').click();
     await p.waitForURL(/\/sign-in/);
@@ -66,7 +58,7 @@ describeBrowser('account set-up link end to end', () => {
       const p = page;
 
       // 1. The firm admin creates the account, choosing the e-mailed set-up link.
-      await signIn(p, ADMIN.email, ADMIN.password);
+      await signIn(p, quarry.baseUrl, ADMIN.email, ADMIN.password);
       await p.goto(`${quarry.baseUrl}/admin`);
       await p.getByTestId('admin-page').waitFor();
       await p.getByRole('button', { name: 'New account' }).click();
@@ -142,7 +134,7 @@ describeBrowser('account set-up link end to end', () => {
       // 6. Signed out, the person signs in with the password they chose.
       await p.goto(`${quarry.baseUrl}/matters`);
       await signOut(p);
-      await signIn(p, NEWCOMER.email, NEWCOMER.password);
+      await signIn(p, quarry.baseUrl, NEWCOMER.email, NEWCOMER.password);
     },
   );
 
@@ -157,7 +149,7 @@ describeBrowser('account set-up link end to end', () => {
 
       // Start signed out whatever the first test left behind.
       await browser.context.clearCookies();
-      await signIn(p, LEAD.email, LEAD.password);
+      await signIn(p, quarry.baseUrl, LEAD.email, LEAD.password);
       await p.getByRole('link', { name: MATTER_NAME }).click();
       await p.getByTestId('matter-nav-access').click();
       await p.getByTestId('access-page').waitFor();

@@ -1,12 +1,12 @@
 import type { Page } from 'playwright-core';
 import type { IndexStateResponse } from '../../shared/schemas/indexing';
-import { type QuarryInstance, startQuarry } from './harness';
+import { DEMO_PASSWORD, type QuarryInstance, signIn, startQuarry } from './harness';
 
 // Shared by the issue-5 browser tests: Quarry with the demo matter AND its corpus
 // (corpus-demo/), waiting until extraction has finished and the first concept index
 // is serving searches.
 
-export const DEMO_PASSWORD = 'quarry-demo';
+export { DEMO_PASSWORD, signIn };
 
 /** Starts Quarry with the demo corpus loaded (the seed's "load the demo corpus" step). */
 export async function startQuarryWithDemoCorpus(): Promise<QuarryInstance> {
@@ -14,14 +14,6 @@ export async function startQuarryWithDemoCorpus(): Promise<QuarryInstance> {
   // Vitest unless asked for); this test file runs in its own worker.
   process.env.QUARRY_SEED_CORPUS = '1';
   return startQuarry({ seedCorpus: true });
-}
-
-export async function signIn(page: Page, baseUrl: string, email: string): Promise<void> {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: /sign in/i }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
 }
 
 /**

@@ -9,6 +9,7 @@ import {
   describeBrowser,
   launchBrowser,
   screenshotOnFailure,
+  signIn,
   startQuarry,
 } from './harness';
 
@@ -38,15 +39,6 @@ describeBrowser('foundation: invite a reviewer end to end', () => {
     await quarry?.close();
   });
 
-  async function signIn(p: Page, email: string, password: string) {
-    await p.goto(`${quarry.baseUrl}/sign-in`);
-    await p.getByLabel('E-mail').fill(email);
-    await p.getByLabel('Password').fill(password);
-    await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL(`${quarry.baseUrl}/matters`);
-    await expect.poll(() => p.getByRole('heading', { name: 'My matters' }).isVisible()).toBe(true);
-  }
-
   it(
     'lead invites, mail arrives, invitee accepts and works as a reviewer only',
     { timeout: 120_000 },
@@ -57,7 +49,7 @@ describeBrowser('foundation: invite a reviewer end to end', () => {
       const matterId = quarry.seeded.matterId;
 
       // 1. The demo lead signs in and opens the demo matter from the list.
-      await signIn(p, LEAD.email, LEAD.password);
+      await signIn(p, quarry.baseUrl, LEAD.email, LEAD.password);
       await p
         .getByTestId('matters-table')
         .getByRole('link', { name: 'Brackenfield Bakeries v Harrowgate Mills' })
@@ -115,7 +107,7 @@ describeBrowser('foundation: invite a reviewer end to end', () => {
       await p.goto(`${quarry.baseUrl}/matters`);
       await p.getByTestId('sign-out').click();
       await p.waitForURL(/\/sign-in/);
-      await signIn(p, NEW_REVIEWER.email, NEW_REVIEWER.password);
+      await signIn(p, quarry.baseUrl, NEW_REVIEWER.email, NEW_REVIEWER.password);
       await p.getByRole('link', { name: 'Brackenfield Bakeries v Harrowgate Mills' }).click();
       await p.getByTestId('matter-home').waitFor();
 

@@ -5,7 +5,7 @@ import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { type BrowserContext, type Page, chromium } from 'playwright-core';
-import { describe, it, onTestFailed } from 'vitest';
+import { describe, expect, it, onTestFailed } from 'vitest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { type AppContext, createContext } from '../../server/context';
@@ -191,4 +191,22 @@ export function screenshotOnFailure(page: () => Page | undefined, name: string):
     await current.screenshot({ path: file, fullPage: true }).catch(() => undefined);
     console.error(`Screenshot of the failing page: ${file} (at ${current.url()})`);
   });
+}
+
+/** The demo accounts' published password (server/seed). */
+export const DEMO_PASSWORD = 'quarry-demo';
+
+/** Signs in through the sign-in page and waits for the list of the person's matters. */
+export async function signIn(
+  page: Page,
+  baseUrl: string,
+  email: string,
+  password = DEMO_PASSWORD,
+): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: /sign in/i }).click();
+  await page.waitForURL(`${baseUrl}/matters`);
+  await expect.poll(() => page.getByRole('heading', { name: 'My matters' }).isVisible()).toBe(true);
 }
