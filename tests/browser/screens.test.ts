@@ -9,6 +9,7 @@ import {
   describeBrowser,
   launchBrowser,
   screenshotOnFailure,
+  signIn,
   startQuarry,
 } from './harness';
 
@@ -39,11 +40,7 @@ describeBrowser('foundation screens', () => {
 
   async function signInAs(p: Page, email: string, password = PASSWORD) {
     await p.context().clearCookies();
-    await p.goto(`${quarry.baseUrl}/sign-in`);
-    await p.getByLabel('E-mail').fill(email);
-    await p.getByLabel('Password').fill(password);
-    await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL(`${quarry.baseUrl}/matters`);
+    await signIn(p, quarry.baseUrl, email, password);
   }
 
   it('shows a clear error on a wrong password and sends a signed-out visitor to sign-in and back', async () => {
