@@ -111,7 +111,12 @@ describeBrowser('review: keyboard coding, then filtering on the code', () => {
     await p.keyboard.press('Escape');
     await p.getByTestId('search-page').waitFor();
     await p.getByTestId('filter-codes').locator('summary').click();
-    await p.getByTestId('filter-codes').getByLabel(CODE, { exact: true }).check();
+    // The filter's state lives in the address bar, so the box shows checked once the
+    // page has re-rendered from the new URL: click, then wait for it (check() would
+    // demand the change within the click itself).
+    const codeBox = p.getByTestId('filter-codes').getByLabel(CODE, { exact: true });
+    await codeBox.click();
+    await expect.poll(() => codeBox.isChecked()).toBe(true);
     await expect.poll(() => p.getByTestId('search-total').textContent()).toBe('3');
     expect((await rowControlNumbers(p)).sort()).toEqual([...coded].sort());
     for (const row of await p.getByTestId('hit-codes').all())
