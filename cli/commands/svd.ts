@@ -1,4 +1,4 @@
-// `quarry svd --matrix <file.mtx> --k N [--json] [--method block-krylov|randomized|lanczos]`:
+// `quarry svd --matrix <file.mtx> --k N [--json] [--method auto|block-krylov|randomized|lanczos]`:
 // top-N singular values of a Matrix Market matrix, with the usual diagnostics.
 import { parseCommandArgs } from '../args';
 import { CliError } from '../cli-error';
@@ -12,7 +12,7 @@ export async function run(argv: string[]): Promise<void> {
     matrix: { type: 'string' },
     k: { type: 'string' },
     json: { type: 'boolean', default: false },
-    method: { type: 'string', default: 'block-krylov' },
+    method: { type: 'string', default: 'auto' },
     'power-iterations': { type: 'string' },
     oversample: { type: 'string' },
   });
@@ -23,8 +23,15 @@ export async function run(argv: string[]): Promise<void> {
   const k = Number(values.k);
   if (k <= 0) throw new CliError(`--k must be at least 1, got ${k}`);
   const method = values.method;
-  if (method !== 'block-krylov' && method !== 'randomized' && method !== 'lanczos') {
-    throw new CliError(`--method must be block-krylov, randomized or lanczos, got "${method}"`);
+  if (
+    method !== 'auto' &&
+    method !== 'block-krylov' &&
+    method !== 'randomized' &&
+    method !== 'lanczos'
+  ) {
+    throw new CliError(
+      `--method must be auto, block-krylov, randomized or lanczos, got "${method}"`,
+    );
   }
   const powerIterations = positiveIntegerOrZero(values['power-iterations'], 'power-iterations');
   const oversample = positiveIntegerOrZero(values.oversample, 'oversample');
@@ -46,7 +53,12 @@ export async function run(argv: string[]): Promise<void> {
   } catch (error) {
     throw new CliError(error instanceof Error ? error.message : String(error));
   }
-  const svd = truncatedSvd(matrix, { k, method, powerIterations, oversample });
+  const svd = truncatedSvd(matrix, {
+    k,
+    method: method === 'auto' ? undefined : method,
+    powerIterations,
+    oversample,
+  });
   const rank = numericalRank(svd.s, matrix.rows, matrix.cols);
   if (rank < k) {
     throw new CliError(

@@ -1,48 +1,40 @@
-// Two-thread sparse x dense block products for the randomized SVD, still behind the
-// synchronous truncatedSvd API: the calling thread takes the first half of the rows
-// (split by nonzeros), a worker thread the second half, over SharedArrayBuffers; the
-// caller then blocks in Atomics.wait until the worker is done (Node allows blocking the
-// main thread; the worker's own event loop delivers the request).
+// Sparse x dense block products for the randomized SVD, behind the synchronous
+// truncatedSvd API. A and A^T are copied once into a shared WebAssembly memory (see
+// wasm-spmm.ts) and every block the SVD allocates is placed there too, so the products
+// run in the WebAssembly SIMD kernel. With two threads, the calling thread takes the
+// first half of the rows (split by nonzeros) and a worker thread the second half over
+// the same memory; the caller then blocks in Atomics.wait until the worker is done
+// (Node allows blocking the main thread; the worker's own event loop delivers the
+// request). Without WebAssembly SIMD, or for blocks the kernel cannot take (odd width,
+// arena full), the JavaScript gather loop of engine/sparse/csr.ts runs instead, on the
+// same threads over SharedArrayBuffers.
 import { Worker } from 'node:worker_threads';
-import { type CsrMatrix, csrTimesBlock, transposeCsr } from '../sparse/csr';
+import { type CsrMatrix, csrTimesBlock, nnzOf, transposeCsr } from '../sparse/csr';
 import type { BlockOperator } from './svd';
+import { SpmmArena, canRun } from './wasm-spmm';
 
-// The worker runs plain JavaScript (eval) so it needs no TypeScript loader; the kernel
-// is the same unrolled gather loop as csrTimesBlock in engine/sparse/csr.ts.
+// The worker runs plain JavaScript (eval) so it needs no TypeScript loader. Its
+// fallback kernel is csrTimesBlock's own source, so the two cannot drift apart.
 const WORKER_SOURCE = `
 const { parentPort, workerData } = require('node:worker_threads');
+const csrTimesBlock = ${csrTimesBlock.toString()};
+const view = (Kind, d) => new Kind(d.buffer, d.byteOffset, d.length);
 const mats = workerData.mats.map((m) => ({
-  rowPtr: new Int32Array(m.rowPtr), colIdx: new Int32Array(m.colIdx), values: new Float64Array(m.values),
+  rows: m.rows, rowPtr: view(Int32Array, m.rowPtr), colIdx: view(Int32Array, m.colIdx),
+  values: view(Float64Array, m.values),
 }));
+const spmm = workerData.module
+  ? new WebAssembly.Instance(workerData.module, { env: { mem: workerData.memory } }).exports.spmm
+  : null;
 const control = new Int32Array(workerData.control);
-function gather(a, x, b, y, rowStart, rowEnd) {
-  const rowPtr = a.rowPtr, colIdx = a.colIdx, values = a.values;
-  for (let i = rowStart; i < rowEnd; i++) {
-    const yo = i * b;
-    for (let j = 0; j < b; j++) y[yo + j] = 0;
-    let p = rowPtr[i];
-    const end = rowPtr[i + 1];
-    for (; p + 7 < end; p += 8) {
-      const v0 = values[p], v1 = values[p + 1], v2 = values[p + 2], v3 = values[p + 3];
-      const v4 = values[p + 4], v5 = values[p + 5], v6 = values[p + 6], v7 = values[p + 7];
-      const o0 = colIdx[p] * b, o1 = colIdx[p + 1] * b, o2 = colIdx[p + 2] * b, o3 = colIdx[p + 3] * b;
-      const o4 = colIdx[p + 4] * b, o5 = colIdx[p + 5] * b, o6 = colIdx[p + 6] * b, o7 = colIdx[p + 7] * b;
-      for (let j = 0; j < b; j++) y[yo + j] += v0 * x[o0 + j] + v1 * x[o1 + j] + v2 * x[o2 + j] + v3 * x[o3 + j] + v4 * x[o4 + j] + v5 * x[o5 + j] + v6 * x[o6 + j] + v7 * x[o7 + j];
-    }
-    for (; p + 3 < end; p += 4) {
-      const v0 = values[p], v1 = values[p + 1], v2 = values[p + 2], v3 = values[p + 3];
-      const o0 = colIdx[p] * b, o1 = colIdx[p + 1] * b, o2 = colIdx[p + 2] * b, o3 = colIdx[p + 3] * b;
-      for (let j = 0; j < b; j++) y[yo + j] += v0 * x[o0 + j] + v1 * x[o1 + j] + v2 * x[o2 + j] + v3 * x[o3 + j];
-    }
-    for (; p < end; p++) {
-      const v = values[p], o = colIdx[p] * b;
-      for (let j = 0; j < b; j++) y[yo + j] += v * x[o + j];
-    }
-  }
-}
 parentPort.on('message', (m) => {
   try {
-    gather(mats[m.matrix], new Float64Array(m.x), m.b, new Float64Array(m.y), m.rowStart, m.rowEnd);
+    const a = mats[m.matrix];
+    if (m.wasm) {
+      spmm(a.rowPtr.byteOffset, a.colIdx.byteOffset, a.values.byteOffset, m.x, m.b, m.y, m.rowStart, m.rowEnd);
+    } else {
+      csrTimesBlock(a, view(Float64Array, m.x), m.b, view(Float64Array, m.y), m.rowStart, m.rowEnd);
+    }
     Atomics.store(control, 0, 1);
   } catch (e) {
     Atomics.store(control, 0, 2);
@@ -50,6 +42,17 @@ parentPort.on('message', (m) => {
   Atomics.notify(control, 0);
 });
 `;
+
+interface ViewDescriptor {
+  buffer: ArrayBufferLike;
+  byteOffset: number;
+  length: number;
+}
+const describe = (a: Int32Array | Float64Array): ViewDescriptor => ({
+  buffer: a.buffer,
+  byteOffset: a.byteOffset,
+  length: a.length,
+});
 
 function toShared(a: CsrMatrix): CsrMatrix {
   const share = <T extends Int32Array | Float64Array>(
@@ -83,47 +86,84 @@ function splitRow(a: CsrMatrix): number {
 }
 
 export interface ParallelOperator extends BlockOperator {
-  /** A Float64Array on shared memory (blocks must be shared for the worker to see them). */
+  /** A zeroed Float64Array the kernels (and the worker) can use. */
   allocate(length: number): Float64Array;
   close(): void;
+  /** How the products run, for the SVD's method label. */
+  kernel: string;
 }
 
-export function parallelCsrOperator(a: CsrMatrix): ParallelOperator {
-  const sa = toShared(a);
-  const sat = toShared(transposeCsr(a));
+/** A and A^T products on `threads` (1 or 2) threads, in WebAssembly SIMD where possible. */
+export function parallelCsrOperator(a: CsrMatrix, threads = 2): ParallelOperator {
+  const at = transposeCsr(a);
+  const arena = SpmmArena.create(2 * 12 * nnzOf(a) + 4 * (a.rows + a.cols + 2) + 256);
+  let mats: [CsrMatrix, CsrMatrix] | null = null;
+  if (arena) {
+    const pa = arena.placeCsr(a);
+    const pat = pa && arena.placeCsr(at);
+    if (pa && pat) mats = [pa, pat];
+  }
+  const useArena = mats !== null;
+  const [sa, sat] = mats ?? [toShared(a), toShared(at)];
   const control = new Int32Array(new SharedArrayBuffer(4));
-  const worker = new Worker(WORKER_SOURCE, {
-    eval: true,
-    workerData: {
-      control: control.buffer,
-      mats: [sa, sat].map((m) => ({
-        rowPtr: m.rowPtr.buffer,
-        colIdx: m.colIdx.buffer,
-        values: m.values.buffer,
-      })),
-    },
-  });
-  worker.unref();
+  const worker =
+    threads >= 2
+      ? new Worker(WORKER_SOURCE, {
+          eval: true,
+          workerData: {
+            control: control.buffer,
+            module: useArena ? arena!.module : null,
+            memory: useArena ? arena!.memory : null,
+            mats: [sa, sat].map((m) => ({
+              rows: m.rows,
+              rowPtr: describe(m.rowPtr),
+              colIdx: describe(m.colIdx),
+              values: describe(m.values),
+            })),
+          },
+        })
+      : null;
+  worker?.unref();
   const splits = [splitRow(sa), splitRow(sat)];
+  const local = (
+    m: CsrMatrix,
+    x: Float64Array,
+    b: number,
+    y: Float64Array,
+    r0: number,
+    r1: number,
+  ) => {
+    if (!(useArena && arena!.times(m, x, b, y, r0, r1))) csrTimesBlock(m, x, b, y, r0, r1);
+  };
   const run = (matrix: 0 | 1, x: Float64Array, b: number, y: Float64Array) => {
     const m = matrix === 0 ? sa : sat;
-    const split = splits[matrix];
-    if (!(x.buffer instanceof SharedArrayBuffer) || !(y.buffer instanceof SharedArrayBuffer)) {
-      csrTimesBlock(m, x, b, y);
+    const shared = x.buffer instanceof SharedArrayBuffer && y.buffer instanceof SharedArrayBuffer;
+    if (!worker || !shared) {
+      local(m, x, b, y, 0, m.rows);
       return;
     }
+    const split = splits[matrix];
+    const wasm = useArena && canRun(arena!, m, x, b, y);
     Atomics.store(control, 0, 0);
-    worker.postMessage({ matrix, x: x.buffer, y: y.buffer, b, rowStart: split, rowEnd: m.rows });
-    csrTimesBlock(m, x, b, y, 0, split);
+    worker.postMessage(
+      wasm
+        ? { matrix, wasm, x: x.byteOffset, y: y.byteOffset, b, rowStart: split, rowEnd: m.rows }
+        : { matrix, wasm, x: describe(x), y: describe(y), b, rowStart: split, rowEnd: m.rows },
+    );
+    local(m, x, b, y, 0, split);
     while (Atomics.load(control, 0) === 0) Atomics.wait(control, 0, 0, 60_000);
     if (Atomics.load(control, 0) !== 1) throw new Error('SVD worker thread failed');
   };
+  const kernel = `${useArena ? 'wasm-simd' : 'javascript'} kernel, ${worker ? 2 : 1} thread${worker ? 's' : ''}`;
   return {
     rows: a.rows,
     cols: a.cols,
     times: (x, b, y) => run(0, x, b, y),
     timesTranspose: (x, b, y) => run(1, x, b, y),
-    allocate: (length) => new Float64Array(new SharedArrayBuffer(length * 8)),
-    close: () => void worker.terminate(),
+    allocate: (length) =>
+      (useArena ? arena!.float64(length) : null) ??
+      new Float64Array(new SharedArrayBuffer(length * 8)),
+    close: () => void worker?.terminate(),
+    kernel,
   };
 }

@@ -255,6 +255,7 @@ describe('two-thread randomized SVD', () => {
     const one = truncatedSvd(a, { k: 8, seed: 3 });
     const two = truncatedSvd(a, { k: 8, seed: 3, threads: 2 });
     expect(two.method).toMatch(/2 threads/);
+    expect(one.method).not.toMatch(/2 threads/);
     expect(maxRelativeError(two.s, one.s, 8)).toBeLessThan(1e-12);
     expect(orthogonalityError(two.U, 300, 8)).toBeLessThan(1e-8);
   });

@@ -1,18 +1,23 @@
 // Truncated SVD of a sparse matrix, A ~ U_k S_k V_k^T, for the concept space.
 //
-// 'randomized' (default): randomized range finder with subspace (power) iteration,
-// Halko, Martinsson & Tropp, "Finding structure with randomness" (SIAM Review 2011),
-// Alg. 4.4 (randomized subspace iteration) and Alg. 5.1 (direct SVD of the small
-// projected matrix). The range block is re-orthonormalised after every product with
-// A (CholeskyQR / CholeskyQR2, Householder fallback) so small directions survive.
+// 'block-krylov': randomized block Krylov range finder (Musco & Musco 2015), the most
+// accurate; the default while its dense work is small (defaultMethod).
+// 'randomized': randomized range finder with subspace (power) iteration, Halko,
+// Martinsson & Tropp, "Finding structure with randomness" (SIAM Review 2011), Alg. 4.3
+// / 4.4 and Alg. 5.1 (direct SVD of the small projected matrix); the default for large
+// matrices. Blocks are re-orthonormalised (CholeskyQR / CholeskyQR2, Householder
+// fallback) so small directions survive.
 // 'lanczos': Golub-Kahan-Lanczos bidiagonalisation with full reorthogonalisation
 // (Golub & Kahan 1965; Golub & Van Loan, Matrix Computations, 4th ed., 10.4), grown
 // until the top-k Ritz residuals converge; slower, used as the accuracy reference.
+// The sparse products run in a WebAssembly SIMD kernel on up to two threads
+// (parallel.ts, wasm-spmm.ts) once the matrix is big enough to repay it.
 //
 // Dense blocks are row-major (n x b) so the CSR gather loop reads contiguous rows.
 
 import { EigenvalueDecomposition, SingularValueDecomposition, Matrix } from 'ml-matrix';
-import { type CsrMatrix, csrTimesBlock, csrTimesVector, transposeCsr } from '../sparse/csr';
+import { availableParallelism } from 'node:os';
+import { type CsrMatrix, csrTimesBlock, csrTimesVector, nnzOf, transposeCsr } from '../sparse/csr';
 import { crossAccumulate, orthonormalize, subtractProduct, timesSmall } from './dense';
 import { fillGaussian, fillRademacher, mulberry32 } from './random';
 import { parallelCsrOperator } from './parallel';
@@ -20,8 +25,9 @@ import { parallelCsrOperator } from './parallel';
 export interface SvdOptions {
   k: number;
   /**
-   * 'block-krylov' (default): randomized block Krylov / block Lanczos; 'randomized':
-   * subspace iteration; 'lanczos': single-vector Golub-Kahan-Lanczos (reference).
+   * 'block-krylov': randomized block Krylov / block Lanczos; 'randomized': subspace
+   * iteration; 'lanczos': single-vector Golub-Kahan-Lanczos (reference). Default:
+   * defaultMethod(rows, cols, k), block Krylov for small work, else 'randomized'.
    */
   method?: 'randomized' | 'lanczos' | 'block-krylov';
   /** Extra columns in the range block beyond k (Halko et al. section 4.2's p). */
@@ -30,8 +36,10 @@ export interface SvdOptions {
   powerIterations?: number;
   seed?: number;
   /**
-   * 2 (or more) runs the randomized solver's sparse products on two threads (the
-   * caller plus one worker thread over shared memory); default 1. Still synchronous.
+   * 2 runs the randomized solvers' sparse products on two threads (the caller plus one
+   * worker thread over shared memory), 1 on the caller only. Default: 2 when the
+   * matrix is large enough to repay the worker's start-up and the machine has two
+   * cores. Still synchronous either way.
    */
   threads?: number;
   onProgress?: (fraction: number) => void;
@@ -64,8 +72,27 @@ export const EPSILON = 2 ** -52;
 export function defaultOversample(k: number): number {
   return Math.max(20, Math.ceil(k * 0.1));
 }
-export const DEFAULT_POWER_ITERATIONS = 5;
-export const DEFAULT_METHOD = 'block-krylov';
+/** Power iterations by method: block Krylov's q + 1 blocks, subspace iteration's q. */
+export const DEFAULT_POWER_ITERATIONS = { 'block-krylov': 5, randomized: 4 } as const;
+
+/**
+ * Multiply-adds of block Krylov's dense work (short side x basis width^2, basis width
+ * 3 (k + p)) up to which it is the default: it is the most accurate method here (median
+ * error ~1e-6 on the bench matrices) and below this budget it takes a few seconds at
+ * most. Above it, subspace iteration with q = 4 (Halko et al. Alg. 4.4) is the default:
+ * its cost grows with the sparse products instead, and with two more power iterations
+ * than scikit-learn's randomized_svd it is more accurate than that (docs/PERFORMANCE.md).
+ * Cranfield (1,400 documents, k = 200) and the demo matter stay on block Krylov.
+ */
+export const BLOCK_KRYLOV_MAX_WORK = 1e9;
+
+/** The method used when options.method is not given. */
+export function defaultMethod(rows: number, cols: number, k: number, oversample?: number) {
+  const basis = 3 * (k + (oversample ?? defaultOversample(k)));
+  return Math.min(rows, cols) * basis * basis <= BLOCK_KRYLOV_MAX_WORK
+    ? 'block-krylov'
+    : 'randomized';
+}
 
 /**
  * Numerical rank: the count of s_i > max(rows, cols) * eps * s_1 (Golub & Van Loan,
@@ -95,21 +122,33 @@ export function validateK(k: number, rows: number, cols: number): void {
 
 export function truncatedSvd(a: CsrMatrix, options: SvdOptions): TruncatedSvd {
   validateK(options.k, a.rows, a.cols);
-  const method = options.method ?? DEFAULT_METHOD;
+  const method = options.method ?? defaultMethod(a.rows, a.cols, options.k, options.oversample);
   if (method === 'lanczos') return lanczosSvd(a, options);
   if (method !== 'randomized' && method !== 'block-krylov') {
     throw new RangeError(`unknown SVD method "${String(method)}"`);
   }
   options = { ...options, method };
-  if ((options.threads ?? 1) >= 2) {
-    const operator = parallelCsrOperator(a);
-    try {
-      return randomizedSvdWith(operator, options);
-    } finally {
-      operator.close();
-    }
+  const work = nnzOf(a) * (options.k + (options.oversample ?? defaultOversample(options.k)));
+  const threads = options.threads ?? (work >= TWO_THREAD_MIN_WORK ? defaultThreadCount() : 1);
+  if (threads < 2 && work < ARENA_MIN_WORK) return randomizedSvd(a, transposeCsr(a), options);
+  const operator = parallelCsrOperator(a, threads);
+  try {
+    return randomizedSvdWith(operator, options);
+  } finally {
+    operator.close();
   }
-  return randomizedSvd(a, transposeCsr(a), options);
+}
+
+/**
+ * Below this many multiply-adds per block product (nonzeros x block width) the plain
+ * JavaScript loop is used: setting up the WebAssembly arena would cost more than it saves.
+ */
+const ARENA_MIN_WORK = 1e6;
+/** From here on (~30 ms per product on one core) a second thread pays for its start-up. */
+const TWO_THREAD_MIN_WORK = 3e7;
+
+function defaultThreadCount(): number {
+  return Math.min(2, availableParallelism());
 }
 
 /** Operations the randomized algorithm needs; a parallel driver can supply its own. */
@@ -122,6 +161,8 @@ export interface BlockOperator {
   timesTranspose(x: Float64Array, b: number, y: Float64Array): void;
   /** Allocates a dense block the operator can read and write (e.g. shared memory). */
   allocate?(length: number): Float64Array;
+  /** How the products run (kernel and threads), for the method label. */
+  kernel?: string;
 }
 
 export function csrOperator(a: CsrMatrix, at: CsrMatrix): BlockOperator {
@@ -140,6 +181,7 @@ function transposed(op: BlockOperator): BlockOperator {
     times: op.timesTranspose,
     timesTranspose: op.times,
     allocate: op.allocate,
+    kernel: op.kernel,
   };
 }
 
@@ -157,12 +199,17 @@ export function randomizedSvdWith(operator: BlockOperator, options: SvdOptions):
   const flip = operator.rows > operator.cols;
   const op = flip ? transposed(operator) : operator;
   const m = op.rows;
-  const q = Math.max(0, Math.floor(options.powerIterations ?? DEFAULT_POWER_ITERATIONS));
+  const krylov = options.method === 'block-krylov';
+  const q = Math.max(
+    0,
+    Math.floor(
+      options.powerIterations ?? DEFAULT_POWER_ITERATIONS[krylov ? 'block-krylov' : 'randomized'],
+    ),
+  );
   const p = Math.max(0, Math.floor(options.oversample ?? defaultOversample(k)));
   const allocate = (length: number) => op.allocate?.(length) ?? new Float64Array(length);
   const seed = options.seed ?? 0x5eed;
   const blockWidth = Math.ceil((k + p) / 2);
-  const krylov = options.method === 'block-krylov';
   let range: { q: Float64Array; l: number; label: string };
   if (krylov && q >= 1 && blockWidth * (q + 1) < m) {
     range = blockKrylovRange(op, k + p, blockWidth, q + 1, seed, allocate, options.onProgress);
@@ -180,7 +227,7 @@ export function randomizedSvdWith(operator: BlockOperator, options: SvdOptions):
       U: flip ? fast.v : fast.u,
       V: flip ? fast.u : fast.v,
       ms: performance.now() - started,
-      method: `${fast.label}${operator.allocate ? ', 2 threads' : ''}`,
+      method: `${fast.label}${operator.kernel ? `, ${operator.kernel}` : ''}`,
     };
   }
   const { u, v, s } = finishFromRange(op, range.q, range.l, k);
@@ -193,7 +240,7 @@ export function randomizedSvdWith(operator: BlockOperator, options: SvdOptions):
     U: flip ? v : u,
     V: flip ? u : v,
     ms: performance.now() - started,
-    method: `${range.label}${operator.allocate ? ', 2 threads' : ''}`,
+    method: `${range.label}${operator.kernel ? `, ${operator.kernel}` : ''}`,
   };
 }
 
@@ -311,9 +358,10 @@ function randomizedSubspaceSvd(
   const vectors = evd.eigenvectorMatrix;
   const et = new Float64Array(k * l);
   for (let c = 0; c < k; c++) for (let i = 0; i < l; i++) et[c * l + i] = vectors.get(i, order[c]);
-  const u = allocate(m * k);
+  // w and z are spent once H is formed: U and A^T U reuse them (saves (m + n) k numbers).
+  const u = w.subarray(0, m * k);
   timesSmall(y, l, et, k, u, 0, m);
-  const vk = allocate(n * k);
+  const vk = z.subarray(0, n * k);
   op.timesTranspose(u, k, vk);
   progress();
   const inv = new Float64Array(k);
