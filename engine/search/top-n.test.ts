@@ -60,6 +60,29 @@ describe('topCosine', () => {
       expect(Array.from(top.indices)).toEqual(reference(rows, k, n, q, 10, 8).map((r) => r.j));
     });
 
+    it(`keeps only scores at or above minScore, the same as cutting the full sort (${backing})`, () => {
+      const floor = 0.3;
+      const top = topCosine(rows, k, n, inverseNorms(rows, k, n), q, 40, { minScore: floor });
+      const ref = reference(rows, k, n, q, n).filter((r) => r.s >= floor + 1e-6);
+      expect(ref.length).toBeGreaterThan(40);
+      expect(Array.from(top.indices)).toEqual(ref.slice(0, 40).map((r) => r.j));
+      const few = topCosine(rows, k, n, inverseNorms(rows, k, n), q, n, { minScore: 0.6 });
+      const refFew = reference(rows, k, n, q, n).filter((r) => r.s >= 0.6);
+      expect(few.indices.length).toBe(refFew.length);
+      for (const s of few.scores) expect(s).toBeGreaterThanOrEqual(0.6);
+    });
+
+    it(`orders the whole set with ties by lower row first (${backing})`, () => {
+      // Rows 40..79 repeat rows 0..39: every score is tied with another row's.
+      const m = 80;
+      const tied = backing === 'simd' ? allocateRows(m, k) : new Float32Array(m * k);
+      for (let i = 0; i < 40 * k; i++) tied[i] = tied[i + 40 * k] = rows[i];
+      const top = topCosine(tied, k, m, inverseNorms(tied, k, m), q, m);
+      const ref = reference(tied, k, m, q, m);
+      expect(Array.from(top.indices)).toEqual(ref.map((r) => r.j));
+      for (let r = 1; r < m; r++) expect(top.scores[r]).toBeLessThanOrEqual(top.scores[r - 1]);
+    });
+
     it(`honours the candidate mask and the excluded row (${backing})`, () => {
       const allow = new Uint8Array(n);
       for (let j = 0; j < n; j += 7) allow[j] = 1;

@@ -18,6 +18,8 @@ export interface TopNOptions {
   allow?: Uint8Array;
   /** Skip this row (e.g. the document itself in "more like this"). */
   exclude?: number;
+  /** Keep only scores at or above this (a cut-off the caller applies anyway; saves heap work). */
+  minScore?: number;
 }
 
 /** Min-heap on (score, -index): the root is the weakest kept hit. */
@@ -58,7 +60,10 @@ class MinHeap {
     if (score < this.scores[0] || (score === this.scores[0] && index > this.indices[0])) return;
     this.scores[0] = score;
     this.indices[0] = index;
-    let c = 0;
+    this.siftDown(0);
+  }
+  private siftDown(from: number): void {
+    let c = from;
     for (;;) {
       const l = 2 * c + 1;
       const r = l + 1;
@@ -73,14 +78,19 @@ class MinHeap {
   get minScore(): number {
     return this.size < this.capacity ? -Infinity : this.scores[0];
   }
+  /**
+   * The kept hits best first (ties: lower index first), by heapsort: popping the
+   * weakest to the back leaves the strongest at the front. Empties the heap.
+   */
   sorted(): TopN {
-    const order = Array.from({ length: this.size }, (_, i) => i).sort(
-      (a, b) => this.scores[b] - this.scores[a] || this.indices[a] - this.indices[b],
-    );
-    return {
-      indices: Int32Array.from(order, (i) => this.indices[i]),
-      scores: Float64Array.from(order, (i) => this.scores[i]),
-    };
+    const n = this.size;
+    while (this.size > 1) {
+      const last = --this.size;
+      this.swap(0, last);
+      this.siftDown(0);
+    }
+    this.size = 0;
+    return { indices: this.indices.slice(0, n), scores: this.scores.slice(0, n) };
   }
 }
 
@@ -108,15 +118,14 @@ export function topCosine(
   const heap = new MinHeap(Math.min(limit, count));
   const allow = options.allow;
   const exclude = options.exclude ?? -1;
-  // A prefix of the axes is the full dot product with the query zero beyond `dims`.
-  const padded = dims === stride ? q : new Float64Array(stride);
-  if (padded !== q) padded.set(q);
-  const fast = simdDots(rows, stride, count, padded);
+  const floor = options.minScore ?? -Infinity;
+  const fast = simdDots(rows, stride, count, q, dims);
   if (fast) {
     for (let j = 0; j < count; j++) {
       if (allow !== undefined && allow[j] === 0) continue;
       if (j === exclude) continue;
       const score = fast[j] * invNorms[j];
+      if (score < floor) continue;
       if (score > heap.minScore || heap.size < heap.capacity) heap.offer(score, j);
     }
     return heap.sorted();
@@ -139,6 +148,7 @@ export function topCosine(
     }
     for (let c = body; c < dims; c++) s0 += q[c] * rows[o + c];
     const score = (s0 + s1 + s2 + s3) * invNorms[j];
+    if (score < floor) continue;
     if (score > heap.minScore || heap.size < heap.capacity) heap.offer(score, j);
   }
   return heap.sorted();

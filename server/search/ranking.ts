@@ -98,6 +98,7 @@ function conceptList(
       dims,
       allow: options.allow,
       exclude: options.exclude,
+      minScore: options.minCosine,
     },
   );
   const out: Scored<number>[] = [];
