@@ -4,7 +4,7 @@
 // Householder QR fallback (Golub & Van Loan, Matrix Computations, 4th ed., 5.2.1)
 // when the Gram matrix is too ill-conditioned for Cholesky.
 
-const GRAM_CHUNK = 64;
+export const GRAM_CHUNK = 64;
 
 /**
  * Upper triangle (and, after the call, the full symmetric matrix) of G += Y^T Y over
@@ -134,6 +134,42 @@ export function timesSmall(
 }
 
 /**
+ * The tall-block kernels over all n rows, as an object so that a caller with a second
+ * thread (engine/linalg/parallel.ts) can supply row-split versions.
+ */
+export interface DenseRows {
+  gram(y: Float64Array, n: number, b: number): Float64Array;
+  /** timesSmall over rows [0, n). */
+  timesSmall(
+    y: Float64Array,
+    b: number,
+    mt: Float64Array,
+    m: number,
+    out: Float64Array,
+    n: number,
+    upper?: boolean,
+  ): void;
+  /** crossAccumulate over rows [0, n). */
+  crossAccumulate(
+    x: Float64Array,
+    strideX: number,
+    w: number,
+    z: Float64Array,
+    b: number,
+    c: Float64Array,
+    n: number,
+    upperOnly?: boolean,
+  ): void;
+}
+
+export const serialRows: DenseRows = {
+  gram,
+  timesSmall: (y, b, mt, m, out, n, upper) => timesSmall(y, b, mt, m, out, 0, n, upper),
+  crossAccumulate: (x, strideX, w, z, b, c, n, upperOnly) =>
+    crossAccumulate(x, strideX, w, z, b, c, 0, n, upperOnly),
+};
+
+/**
  * Cholesky factor R (upper, row-major) with G = R^T R, or null when a pivot is not
  * safely positive (G numerically singular for this purpose).
  */
@@ -190,8 +226,9 @@ export function orthonormalize(
   n: number,
   b: number,
   passes: 1 | 2 = 2,
+  rows: DenseRows = serialRows,
 ): OrthonormalizeResult {
-  const g1 = gram(y, n, b);
+  const g1 = rows.gram(y, n, b);
   const r1 = choleskyUpper(g1, b);
   if (!r1 || n < b) return { r: householderQr(y, n, b), method: 'householder' };
   // A first Cholesky pass amplifies errors by cond(R)^2; if the diagonal already shows a
@@ -199,9 +236,9 @@ export function orthonormalize(
   if (passes === 2 && diagConditionEstimate(r1, b) > 1e7) {
     return { r: householderQr(y, n, b), method: 'householder' };
   }
-  timesSmall(y, b, upperInverseTransposed(r1, b), b, y, 0, n, true);
+  rows.timesSmall(y, b, upperInverseTransposed(r1, b), b, y, n, true);
   if (passes === 1) return { r: r1, method: 'cholesky-qr' };
-  const g2 = gram(y, n, b);
+  const g2 = rows.gram(y, n, b);
   let offIdentity = 0;
   for (let i = 0; i < b; i++) {
     for (let j = 0; j < b; j++)
@@ -212,10 +249,10 @@ export function orthonormalize(
     // Q1 = Y R1^-1 is too far from orthonormal: restore Y = Q1 R1 and use Householder.
     const r1t = new Float64Array(b * b);
     for (let i = 0; i < b; i++) for (let j = i; j < b; j++) r1t[j * b + i] = r1[i * b + j];
-    timesSmall(y, b, r1t, b, y, 0, n, true);
+    rows.timesSmall(y, b, r1t, b, y, n, true);
     return { r: householderQr(y, n, b), method: 'householder' };
   }
-  timesSmall(y, b, upperInverseTransposed(r2, b), b, y, 0, n, true);
+  rows.timesSmall(y, b, upperInverseTransposed(r2, b), b, y, n, true);
   return { r: multiplyUpper(r2, r1, b), method: 'cholesky-qr2' };
 }
 

@@ -11,13 +11,26 @@
 import { Worker } from 'node:worker_threads';
 import { type CsrMatrix, csrTimesBlock, nnzOf, transposeCsr } from '../sparse/csr';
 import type { BlockOperator } from './svd';
+import {
+  type DenseRows,
+  GRAM_CHUNK,
+  crossAccumulate,
+  gramAccumulate,
+  serialRows,
+  symmetrizeFromUpper,
+  timesSmall,
+} from './dense';
 import { SpmmArena, canRun } from './wasm-spmm';
 
 // The worker runs plain JavaScript (eval) so it needs no TypeScript loader. Its
-// fallback kernel is csrTimesBlock's own source, so the two cannot drift apart.
+// JavaScript kernels are the engine's own functions' source, so the two cannot drift.
 const WORKER_SOURCE = `
 const { parentPort, workerData } = require('node:worker_threads');
 const csrTimesBlock = ${csrTimesBlock.toString()};
+const GRAM_CHUNK = ${GRAM_CHUNK};
+const gramAccumulate = ${gramAccumulate.toString()};
+const timesSmall = ${timesSmall.toString()};
+const crossAccumulate = ${crossAccumulate.toString()};
 const view = (Kind, d) => new Kind(d.buffer, d.byteOffset, d.length);
 const mats = workerData.mats.map((m) => ({
   rows: m.rows, rowPtr: view(Int32Array, m.rowPtr), colIdx: view(Int32Array, m.colIdx),
@@ -29,8 +42,15 @@ const spmm = workerData.module
 const control = new Int32Array(workerData.control);
 parentPort.on('message', (m) => {
   try {
+    const f64 = (d) => view(Float64Array, d);
     const a = mats[m.matrix];
-    if (m.wasm) {
+    if (m.dense === 'gram') {
+      gramAccumulate(f64(m.y), m.b, f64(m.g), m.rowStart, m.rowEnd);
+    } else if (m.dense === 'timesSmall') {
+      timesSmall(f64(m.y), m.b, f64(m.mt), m.m, f64(m.out), m.rowStart, m.rowEnd, m.upper);
+    } else if (m.dense === 'cross') {
+      crossAccumulate(f64(m.x), m.strideX, m.w, f64(m.z), m.b, f64(m.c), m.rowStart, m.rowEnd, m.upperOnly);
+    } else if (m.wasm) {
       spmm(a.rowPtr.byteOffset, a.colIdx.byteOffset, a.values.byteOffset, m.x, m.b, m.y, m.rowStart, m.rowEnd);
     } else {
       csrTimesBlock(a, view(Float64Array, m.x), m.b, view(Float64Array, m.y), m.rowStart, m.rowEnd);
@@ -42,6 +62,12 @@ parentPort.on('message', (m) => {
   Atomics.notify(control, 0);
 });
 `;
+
+/** Below this many multiply-adds a dense kernel stays on the calling thread. */
+const DENSE_SPLIT_MIN_WORK = 2e6;
+
+const isShared = (a: Float64Array) => a.buffer instanceof SharedArrayBuffer;
+const sharedZeros = (length: number) => new Float64Array(new SharedArrayBuffer(length * 8));
 
 interface ViewDescriptor {
   buffer: ArrayBufferLike;
@@ -125,6 +151,14 @@ export function parallelCsrOperator(a: CsrMatrix, threads = 2): ParallelOperator
       : null;
   worker?.unref();
   const splits = [splitRow(sa), splitRow(sat)];
+  const start = (message: object) => {
+    Atomics.store(control, 0, 0);
+    worker!.postMessage(message);
+  };
+  const finish = () => {
+    while (Atomics.load(control, 0) === 0) Atomics.wait(control, 0, 0, 60_000);
+    if (Atomics.load(control, 0) !== 1) throw new Error('SVD worker thread failed');
+  };
   const local = (
     m: CsrMatrix,
     x: Float64Array,
@@ -142,17 +176,82 @@ export function parallelCsrOperator(a: CsrMatrix, threads = 2): ParallelOperator
       local(m, x, b, y, 0, m.rows);
       return;
     }
-    const split = splits[matrix];
+    const rowSplit = splits[matrix];
     const wasm = useArena && canRun(arena!, m, x, b, y);
-    Atomics.store(control, 0, 0);
-    worker.postMessage(
+    start(
       wasm
-        ? { matrix, wasm, x: x.byteOffset, y: y.byteOffset, b, rowStart: split, rowEnd: m.rows }
-        : { matrix, wasm, x: describe(x), y: describe(y), b, rowStart: split, rowEnd: m.rows },
+        ? { matrix, wasm, x: x.byteOffset, y: y.byteOffset, b, rowStart: rowSplit, rowEnd: m.rows }
+        : { matrix, wasm, x: describe(x), y: describe(y), b, rowStart: rowSplit, rowEnd: m.rows },
     );
-    local(m, x, b, y, 0, split);
-    while (Atomics.load(control, 0) === 0) Atomics.wait(control, 0, 0, 60_000);
-    if (Atomics.load(control, 0) !== 1) throw new Error('SVD worker thread failed');
+    local(m, x, b, y, 0, rowSplit);
+    finish();
+  };
+  // Dense kernels split by rows: the worker's half writes its own partial sums (Gram
+  // and cross products) into a small shared buffer that is added in afterwards.
+  const split = (...arrays: Float64Array[]) => worker !== null && arrays.every(isShared);
+  const half = (n: number) => (n >> 3) << 2; // a multiple of 4: timesSmall's row blocks
+  const dense: DenseRows = {
+    gram(y, n, b) {
+      if (!split(y) || n * b * b < DENSE_SPLIT_MIN_WORK) return serialRows.gram(y, n, b);
+      const theirs = sharedZeros(b * b);
+      start({
+        dense: 'gram',
+        y: describe(y),
+        b,
+        g: describe(theirs),
+        rowStart: half(n),
+        rowEnd: n,
+      });
+      const g = new Float64Array(b * b);
+      gramAccumulate(y, b, g, 0, half(n));
+      finish();
+      for (let i = 0; i < g.length; i++) g[i] += theirs[i];
+      symmetrizeFromUpper(g, b);
+      return g;
+    },
+    timesSmall(y, b, mt, m, out, n, upper = false) {
+      if (!split(y, out) || n * b * m < DENSE_SPLIT_MIN_WORK) {
+        serialRows.timesSmall(y, b, mt, m, out, n, upper);
+        return;
+      }
+      const mtShared = sharedZeros(mt.length);
+      mtShared.set(mt);
+      start({
+        dense: 'timesSmall',
+        y: describe(y),
+        b,
+        mt: describe(mtShared),
+        m,
+        out: describe(out),
+        rowStart: half(n),
+        rowEnd: n,
+        upper,
+      });
+      timesSmall(y, b, mt, m, out, 0, half(n), upper);
+      finish();
+    },
+    crossAccumulate(x, strideX, w, z, b, c, n, upperOnly = false) {
+      if (!split(x, z) || n * w * b < DENSE_SPLIT_MIN_WORK) {
+        serialRows.crossAccumulate(x, strideX, w, z, b, c, n, upperOnly);
+        return;
+      }
+      const theirs = sharedZeros(c.length);
+      start({
+        dense: 'cross',
+        x: describe(x),
+        strideX,
+        w,
+        z: describe(z),
+        b,
+        c: describe(theirs),
+        rowStart: half(n),
+        rowEnd: n,
+        upperOnly,
+      });
+      crossAccumulate(x, strideX, w, z, b, c, 0, half(n), upperOnly);
+      finish();
+      for (let i = 0; i < c.length; i++) c[i] += theirs[i];
+    },
   };
   const kernel = `${useArena ? 'wasm-simd' : 'javascript'} kernel, ${worker ? 2 : 1} thread${worker ? 's' : ''}`;
   return {
@@ -165,5 +264,6 @@ export function parallelCsrOperator(a: CsrMatrix, threads = 2): ParallelOperator
       new Float64Array(new SharedArrayBuffer(length * 8)),
     close: () => void worker?.terminate(),
     kernel,
+    dense,
   };
 }

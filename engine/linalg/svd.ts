@@ -18,7 +18,7 @@
 import { EigenvalueDecomposition, SingularValueDecomposition, Matrix } from 'ml-matrix';
 import { availableParallelism } from 'node:os';
 import { type CsrMatrix, csrTimesBlock, csrTimesVector, nnzOf, transposeCsr } from '../sparse/csr';
-import { crossAccumulate, orthonormalize, subtractProduct, timesSmall } from './dense';
+import { type DenseRows, orthonormalize, serialRows, subtractProduct } from './dense';
 import { fillGaussian, fillRademacher, mulberry32 } from './random';
 import { parallelCsrOperator } from './parallel';
 
@@ -163,6 +163,8 @@ export interface BlockOperator {
   allocate?(length: number): Float64Array;
   /** How the products run (kernel and threads), for the method label. */
   kernel?: string;
+  /** Row-split dense kernels for the blocks this operator allocates (e.g. two threads). */
+  dense?: DenseRows;
 }
 
 export function csrOperator(a: CsrMatrix, at: CsrMatrix): BlockOperator {
@@ -182,6 +184,7 @@ function transposed(op: BlockOperator): BlockOperator {
     timesTranspose: op.times,
     allocate: op.allocate,
     kernel: op.kernel,
+    dense: op.dense,
   };
 }
 
@@ -256,6 +259,7 @@ function subspaceIterationRange(
   onProgress?: (fraction: number) => void,
 ): { q: Float64Array; l: number; label: string } {
   const m = op.rows;
+  const dense = op.dense ?? serialRows;
   const n = op.cols;
   const totalSteps = 2 * q + 2;
   let step = 0;
@@ -266,14 +270,14 @@ function subspaceIterationRange(
   op.times(omega, l, y);
   progress();
   const z = omega;
-  orthonormalize(y, m, l, q === 0 ? 2 : 1);
+  orthonormalize(y, m, l, q === 0 ? 2 : 1, dense);
   for (let it = 0; it < q; it++) {
     op.timesTranspose(y, l, z);
     progress();
-    orthonormalize(z, n, l, 1);
+    orthonormalize(z, n, l, 1, dense);
     op.times(z, l, y);
     progress();
-    orthonormalize(y, m, l, it === q - 1 ? 2 : 1);
+    orthonormalize(y, m, l, it === q - 1 ? 2 : 1, dense);
   }
   return { q: y, l, label: `randomized subspace iteration (q=${q}, l=${l})` };
 }
@@ -310,6 +314,7 @@ function randomizedSubspaceSvd(
   options: SvdOptions,
 ): { u: Float64Array; v: Float64Array; s: Float64Array; label: string } {
   const m = op.rows;
+  const dense = op.dense ?? serialRows;
   const n = op.cols;
   const totalSteps = 2 * q + 4;
   let step = 0;
@@ -322,7 +327,7 @@ function randomizedSubspaceSvd(
   let normalisations = 0;
   for (let it = 0; it < q; it++) {
     if (it > 0 && it % 2 === 0) {
-      orthonormalize(y, m, l, 1);
+      orthonormalize(y, m, l, 1, dense);
       normalisations++;
     }
     op.timesTranspose(y, l, z);
@@ -330,7 +335,7 @@ function randomizedSubspaceSvd(
     op.times(z, l, y);
     progress();
   }
-  orthonormalize(y, m, l, 2);
+  orthonormalize(y, m, l, 2, dense);
   op.timesTranspose(y, l, z);
   progress();
   const w = allocate(m * l);
@@ -338,7 +343,7 @@ function randomizedSubspaceSvd(
   progress();
   const h = new Float64Array(l * l);
   // H = Q^T (A A^T Q) is symmetric: form its upper triangle only and mirror it.
-  crossAccumulate(y, l, l, w, l, h, 0, m, true);
+  dense.crossAccumulate(y, l, l, w, l, h, m, true);
   const rows: number[][] = [];
   for (let i = 0; i < l; i++) {
     const row: number[] = new Array(l);
@@ -360,7 +365,7 @@ function randomizedSubspaceSvd(
   for (let c = 0; c < k; c++) for (let i = 0; i < l; i++) et[c * l + i] = vectors.get(i, order[c]);
   // w and z are spent once H is formed: U and A^T U reuse them (saves (m + n) k numbers).
   const u = w.subarray(0, m * k);
-  timesSmall(y, l, et, k, u, 0, m);
+  dense.timesSmall(y, l, et, k, u, m);
   const vk = z.subarray(0, n * k);
   op.timesTranspose(u, k, vk);
   progress();
@@ -397,6 +402,7 @@ function blockKrylovRange(
   onProgress?: (fraction: number) => void,
 ): { q: Float64Array; l: number; label: string } {
   const m = op.rows;
+  const dense = op.dense ?? serialRows;
   const n = op.cols;
   const K = b * blocks;
   const basis = allocate(m * K); // row-major, stride K
@@ -405,7 +411,7 @@ function blockKrylovRange(
   const w = allocate(m * b);
   fillGaussian(zn, seed);
   op.times(zn, b, w);
-  orthonormalize(w, m, b, 2);
+  orthonormalize(w, m, b, 2, dense);
   const place = (offset: number) => {
     for (let i = 0; i < m; i++) basis.set(w.subarray(i * b, (i + 1) * b), i * K + offset);
   };
@@ -416,7 +422,7 @@ function blockKrylovRange(
   const progress = () => onProgress?.(Math.min(0.99, ++step / totalSteps));
   const project = (width: number, coefficients: Float64Array) => {
     const c = new Float64Array(width * b);
-    crossAccumulate(basis, K, width, w, b, c, 0, m);
+    dense.crossAccumulate(basis, K, width, w, b, c, m);
     const ct = new Float64Array(b * width);
     for (let i = 0; i < width; i++) for (let j = 0; j < b; j++) ct[j * width + i] = c[i * b + j];
     subtractProduct(basis, K, width, ct, w, b, m);
@@ -438,12 +444,12 @@ function blockKrylovRange(
       for (let c = 0; c < b; c++) h[i * K + offset + c] = coefficients[i * b + c];
     }
     if (j === blocks - 1) break;
-    const { r, method } = orthonormalize(w, m, b, 2);
+    const { r, method } = orthonormalize(w, m, b, 2, dense);
     if (method === 'householder') {
       // Rank-deficient block (the Krylov space is exhausted): the fresh directions the
       // Householder Q supplies must still be made orthogonal to the basis.
       project(width, new Float64Array(width * b));
-      orthonormalize(w, m, b, 2);
+      orthonormalize(w, m, b, 2, dense);
     }
     for (let i = 0; i < b; i++)
       for (let c = i; c < b; c++) h[(width + i) * K + offset + c] = r[i * b + c];
@@ -465,7 +471,7 @@ function blockKrylovRange(
   for (let c = 0; c < lOut; c++)
     for (let i = 0; i < K; i++) et[c * K + i] = vectors.get(i, order[c]);
   const qOut = allocate(m * lOut);
-  timesSmall(basis, K, et, lOut, qOut, 0, m);
+  dense.timesSmall(basis, K, et, lOut, qOut, m);
   return { q: qOut, l: lOut, label: `block Krylov (${blocks} blocks of ${b}, l=${lOut})` };
 }
 
@@ -480,18 +486,19 @@ function finishFromRange(
   k: number,
 ): { u: Float64Array; v: Float64Array; s: Float64Array } {
   const m = op.rows;
+  const dense = op.dense ?? serialRows;
   const n = op.cols;
   const z = op.allocate?.(n * l) ?? new Float64Array(n * l);
   op.timesTranspose(q, l, z);
-  const { r } = orthonormalize(z, n, l, 2);
+  const { r } = orthonormalize(z, n, l, 2, dense);
   const small = smallSvd(transposeSquare(r, l), l);
   const s = small.s.slice(0, k);
   const ubT = firstColumnsTransposed(small.u, l, k);
   const vbT = firstColumnsTransposed(small.v, l, k);
   const u = new Float64Array(m * k);
   const v = new Float64Array(n * k);
-  timesSmall(q, l, ubT, k, u, 0, m);
-  timesSmall(z, l, vbT, k, v, 0, n);
+  dense.timesSmall(q, l, ubT, k, u, m);
+  dense.timesSmall(z, l, vbT, k, v, n);
   return { u, v, s };
 }
 

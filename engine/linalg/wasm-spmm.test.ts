@@ -4,6 +4,7 @@ import { type CsrMatrix, csrFromTriplets, csrToDense } from '../sparse/csr';
 import { mulberry32 } from './random';
 import { SpmmArena, spmmModule } from './wasm-spmm';
 import { parallelCsrOperator } from './parallel';
+import { serialRows } from './dense';
 
 /**
  * Seeded sparse matrix whose rows hold 0 to 20 nonzeros, so every path of the kernel
@@ -131,6 +132,32 @@ describe('two-thread block operator', () => {
         );
         expect(maxAbsDifference(yt, referenceProduct(at, xt, b))).toBeLessThan(1e-12);
       }
+    } finally {
+      op.close();
+    }
+  });
+
+  it('row-split dense kernels (Gram, Y M, cross product) agree with the one-thread kernels', () => {
+    const op = parallelCsrOperator(ragged(50, 40, 2), 2);
+    try {
+      const n = 2001; // odd, so the halves differ and the 4-row tail is taken
+      const b = 40;
+      const y = randomBlock(n * b, 7, op.allocate(n * b));
+      const z = randomBlock(n * b, 8, op.allocate(n * b));
+      expect(maxAbsDifference(op.dense!.gram(y, n, b), serialRows.gram(y, n, b))).toBeLessThan(
+        1e-11,
+      );
+      const mt = randomBlock(30 * b, 9);
+      const out = op.allocate(n * 30);
+      const expected = new Float64Array(n * 30);
+      op.dense!.timesSmall(y, b, mt, 30, out, n);
+      serialRows.timesSmall(y, b, mt, 30, expected, n);
+      expect(maxAbsDifference(out, expected)).toBeLessThan(1e-12);
+      const c = new Float64Array(b * b);
+      const cExpected = new Float64Array(b * b);
+      op.dense!.crossAccumulate(y, b, b, z, b, c, n);
+      serialRows.crossAccumulate(y, b, b, z, b, cExpected, n);
+      expect(maxAbsDifference(c, cExpected)).toBeLessThan(1e-11);
     } finally {
       op.close();
     }
