@@ -4,6 +4,7 @@ import * as indexBlobs from './2026_12_01_0100_index_blobs';
 import * as accountSetupTokens from './2026_12_02_0200_account_setup_tokens';
 import * as conceptInsights from './2026_12_02_0400_concept_insights';
 import * as matterIndexSettings from './2026_12_02_0500_matter_index_settings';
+import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -13,4 +14,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0200_account_setup_tokens': accountSetupTokens,
   '2026_12_02_0400_concept_insights': conceptInsights,
   '2026_12_02_0500_matter_index_settings': matterIndexSettings,
+  '2026_12_02_0600_search_filter_index': searchFilterIndex,
 };

@@ -14,7 +14,9 @@ type Executor = Kysely<Database> | Transaction<Database>;
 
 // Queries are written in Kysely; the two that return up to a whole matter's ids
 // (filter candidates, keyword matches) are compiled by Kysely and run on the raw
-// better-sqlite3 handle with raw rows, which avoids building 100,000 row objects.
+// better-sqlite3 handle without building a JavaScript row per document (measured on
+// 100,000 documents: about 0.85 us per row as arrays, 0.23 us plucked): filter ids are
+// plucked, keyword matches come back as two JSON arrays built by SQLite.
 
 const statementCache = new WeakMap<SQLite.Database, Map<string, SQLite.Statement>>();
 
@@ -30,11 +32,29 @@ function prepared(sqlite: SQLite.Database, text: string): SQLite.Statement {
   return stmt;
 }
 
-function rawRows(sqlite: SQLite.Database, query: Compilable): unknown[][] {
+function pluckedIds(sqlite: SQLite.Database, query: Compilable): number[] {
   const compiled = query.compile();
   return prepared(sqlite, compiled.sql)
+    .pluck(true)
+    .all(...(compiled.parameters as unknown[])) as number[];
+}
+
+/**
+ * The (id, score) rows of `query`, in its order, as two JSON arrays aggregated by
+ * SQLite. The query must end in ORDER BY ... LIMIT: a subquery with a LIMIT is not
+ * flattened (SQLite query optimizer, flattening rules), so the aggregate reads its
+ * rows in that order; SQLite writes REAL values with 17 significant digits, which
+ * JSON.parse turns back into the same doubles.
+ */
+function idScorePairs(sqlite: SQLite.Database, query: Compilable) {
+  const compiled = query.compile();
+  const [ids, scores] = prepared(
+    sqlite,
+    `SELECT json_group_array(id), json_group_array(score) FROM (${compiled.sql})`,
+  )
     .raw(true)
-    .all(...(compiled.parameters as unknown[])) as unknown[][];
+    .get(...(compiled.parameters as unknown[])) as [string, string];
+  return { ids: JSON.parse(ids) as number[], scores: JSON.parse(scores) as number[] };
 }
 
 /** True when the filters restrict which documents may match (includeDuplicates does not). */
@@ -100,7 +120,7 @@ export function filteredDocumentIds(
     .where('d.matter_id', '=', matterId)
     .where('d.extract_status', '=', 'extracted')
     .where(filterCondition(filters));
-  return rawRows(sqlite, query).map((row) => row[0] as number);
+  return pluckedIds(sqlite, query);
 }
 
 /**
@@ -126,8 +146,7 @@ export function keywordMatches(
     .where(filterCondition(filters))
     .orderBy(sql`bm25(documents_fts)`)
     .limit(limit);
-  const rows = rawRows(sqlite, query);
-  return { ids: rows.map((r) => r[0] as number), scores: rows.map((r) => r[1] as number) };
+  return idScorePairs(sqlite, query);
 }
 
 /** Duplicates (same SHA-256, status 'duplicate') of the given first copies, passing the filters. */
@@ -204,7 +223,9 @@ export async function documentsByIds(db: Executor, matterId: number, ids: number
           'd.duplicate_of',
           'c.name as custodian_name',
         ])
-        .where('d.matter_id', '=', matterId)
+        // Unary + keeps SQLite from reading the matter through a matter_id index (every
+        // document of a 100,000-document matter, 11 ms) instead of the page's rowids.
+        .where(sql<SqlBool>`+d.matter_id = ${matterId}`)
         .where('d.id', 'in', ids.slice(start, start + 900))
         .execute()),
     );
