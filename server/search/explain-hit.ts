@@ -5,7 +5,6 @@
 // The engine's explainMatch takes a query string; this takes any vector (a query, a
 // passage or a document for "more like this").
 import type { ConceptSpace } from '../../engine/index/concept-space';
-import { analyze } from '../../engine/text/analyzer';
 
 function termDot(space: ConceptSpace, termId: number, x: ArrayLike<number>): number {
   const k = space.k;
@@ -24,24 +23,32 @@ function norm(v: ArrayLike<number>): number {
   return Math.sqrt(s);
 }
 
-/** The document terms carrying most of its cosine with `query`, best first. */
+/**
+ * The document terms carrying most of its cosine with `query`, best first.
+ * `documentTerms` is the analysis of the document's text (analyze, or
+ * analyzedTerms in highlight.ts); `dots` memoises (u_j M) . query per term across
+ * the hits of one page, which share most of their vocabulary.
+ */
 export function topContributions(
   space: ConceptSpace,
   query: Float64Array,
   documentIndex: number,
-  documentText: string,
+  documentTerms: readonly string[],
   limit: number,
+  dots: Map<number, number> = new Map(),
 ): { term: string; contribution: number }[] {
   const d = space.docVector(documentIndex);
   const qn = norm(query);
   const dn = norm(d);
   if (!(qn > 0 && dn > 0)) return [];
   const scale = 1 / (qn * dn);
-  const weighted = space.weightTerms(analyze(documentText));
+  const weighted = space.weightTerms(documentTerms);
   const out: { term: string; contribution: number }[] = [];
   for (let p = 0; p < weighted.ids.length; p++) {
     const id = weighted.ids[p];
-    const contribution = scale * weighted.weights[p] * termDot(space, id, query);
+    let dot = dots.get(id);
+    if (dot === undefined) dots.set(id, (dot = termDot(space, id, query)));
+    const contribution = scale * weighted.weights[p] * dot;
     if (contribution > 0) out.push({ term: space.terms[id], contribution });
   }
   out.sort((a, b) => b.contribution - a.contribution || (a.term < b.term ? -1 : 1));

@@ -18,17 +18,40 @@ export interface TermSpan {
 }
 
 const TOKEN = /[\p{L}\p{N}]+/gu;
-const termCache = new Map<string, string | null>();
 
-function termOf(token: string): string | null {
-  let term = termCache.get(token);
-  if (term === undefined) {
-    term = analyze(token)[0] ?? null;
-    if (termCache.size > 100_000) termCache.clear();
-    termCache.set(token, term);
+/**
+ * A bounded memo in two generations: when the newer one is full it becomes the older
+ * and a fresh one starts, and a hit in the older is carried forward. Recently used
+ * entries survive a turnover, unlike clearing one map when it fills (which, over a
+ * matter's vocabulary of a few hundred thousand words, re-stemmed most tokens of a
+ * page after every clear).
+ */
+export class GenerationalMemo<V> {
+  private newer = new Map<string, V>();
+  private older = new Map<string, V>();
+  constructor(
+    private readonly compute: (key: string) => V,
+    private readonly generationSize: number,
+  ) {}
+  get(key: string): V {
+    let value = this.newer.get(key);
+    if (value !== undefined) return value;
+    value = this.older.get(key);
+    if (value === undefined) value = this.compute(key);
+    if (this.newer.size >= this.generationSize) {
+      this.older = this.newer;
+      this.newer = new Map();
+    }
+    this.newer.set(key, value);
+    return value;
   }
-  return term;
 }
+
+/** A token's index term (null for a stop word); up to 2 x 250,000 tokens remembered. */
+const termOf = (() => {
+  const memo = new GenerationalMemo<string | null>((token) => analyze(token)[0] ?? null, 250_000);
+  return (token: string) => memo.get(token);
+})();
 
 export function termSpans(text: string, maxChars = SCAN_MAX_CHARS): TermSpan[] {
   const scanned = text.length > maxChars ? text.slice(0, maxChars) : text;
@@ -37,6 +60,25 @@ export function termSpans(text: string, maxChars = SCAN_MAX_CHARS): TermSpan[] {
     spans.push({ start: m.index, end: m.index + m[0].length, term: termOf(m[0]), surface: m[0] });
   }
   return spans;
+}
+
+/** Any UTF-16 code unit beyond ASCII (surrogates included). */
+const NON_ASCII = /[\u0080-\uffff]/;
+
+/**
+ * analyze(`${title}\n${body}`), the analysis the index gave the document, reusing the
+ * body's spans when that is exact: for ASCII text, NFKC and lower-casing change no
+ * character, so the analyzer's tokens are the spans' tokens in order. Any other text
+ * (or a body longer than the spans cover) is analysed again. `bodySpans` is
+ * termSpans(body) with its default scan limit.
+ */
+export function analyzedTerms(title: string, body: string, bodySpans: readonly TermSpan[]) {
+  const covered = body.length <= SCAN_MAX_CHARS;
+  if (!covered || NON_ASCII.test(title) || NON_ASCII.test(body))
+    return analyze(`${title}\n${body}`);
+  const terms = analyze(title);
+  for (const span of bodySpans) if (span.term !== null) terms.push(span.term);
+  return terms;
 }
 
 export type Mark = 'query' | 'concept';

@@ -12,7 +12,14 @@ import { recordAudit } from '../audit/record';
 import { appliedCodesOf } from '../codes/service';
 import type { AppContext } from '../context';
 import { topContributions } from './explain-hit';
-import { buildSnippet, collectSurfaces, surfaceOf, termSpans, type MarkTerms } from './highlight';
+import {
+  analyzedTerms,
+  buildSnippet,
+  collectSurfaces,
+  surfaceOf,
+  termSpans,
+  type MarkTerms,
+} from './highlight';
 import { documentsByIds, recentSearchEvents, sortedPage, textsByIds } from './queries';
 import { rankResultSet, type RankedSet } from './ranking';
 
@@ -52,8 +59,10 @@ async function explainPage(
   ids: number[],
 ): Promise<SearchHit[]> {
   if (ids.length === 0) return [];
-  const position = new Map<number, number>();
-  ranked.ids.forEach((id, i) => position.set(id, i));
+  // Rank positions of the page's documents only (the result set may hold 10,000).
+  const position = new Map<number, number>(ids.map((id) => [id, -1]));
+  for (let i = 0; i < ranked.ids.length; i++)
+    if (position.get(ranked.ids[i]) === -1) position.set(ranked.ids[i], i);
   const [docs, texts, codes] = await Promise.all([
     documentsByIds(ctx.db, matterId, ids),
     textsByIds(
@@ -66,7 +75,7 @@ async function explainPage(
   const textById = new Map(texts.map((t) => [t.document_id, t]));
   const space = ranked.space;
   const nearestSet = new Set(ranked.nearest.map((t) => t.term));
-  const surfaces = new Map<string, Map<string, number>>();
+  const termDots = new Map<number, number>();
   const prepared = ids
     .filter((id) => docById.has(id))
     .map((id) => {
@@ -75,7 +84,6 @@ async function explainPage(
       const t = textById.get(sourceId);
       const body = t?.body ?? '';
       const spans = termSpans(body);
-      collectSurfaces(spans, surfaces);
       let contributions: { term: string; weight: number }[] = [];
       const index = space?.indexOf(sourceId);
       if (space && ranked.mode !== 'keyword' && ranked.queryVector && index !== undefined) {
@@ -83,8 +91,9 @@ async function explainPage(
           space,
           ranked.queryVector,
           index,
-          `${t?.title ?? ''}\n${body}`,
+          analyzedTerms(t?.title ?? '', body, spans),
           TOP_TERMS,
+          termDots,
         ).map((c) => ({ term: c.term, weight: c.contribution }));
       } else {
         // Keyword: the query's terms the document holds, by how often it uses them.
@@ -100,6 +109,18 @@ async function explainPage(
       }
       return { id, i, body, spans, contributions };
     });
+  // Surface forms from the page's texts are only consulted for terms the index has no
+  // label for (surfaceOf), so they are collected only when such a term is shown.
+  const surfaces = new Map<string, Map<string, number>>();
+  const labelled = (term: string) => {
+    const termId = space?.termId(term);
+    return termId !== undefined && Boolean(space?.labels?.[termId]);
+  };
+  if (
+    ranked.nearest.some((t) => !labelled(t.term)) ||
+    prepared.some((p) => p.contributions.some((c) => !labelled(c.term)))
+  )
+    for (const p of prepared) collectSurfaces(p.spans, surfaces);
   const nearestQueryTerms = ranked.nearest.map((t) => ({
     term: surfaceOf(t.term, surfaces, space),
     similarity: t.similarity,
