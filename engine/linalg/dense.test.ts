@@ -109,4 +109,24 @@ describe('block kernels against naive loops', () => {
       }
     }
   });
+
+  it('timesSmall with an upper-triangular M (given transposed) sums only i <= j, in place too', () => {
+    for (const width of [8, 9]) {
+      const y = new Float64Array(n * width);
+      fillGaussian(y, width);
+      const mt = new Float64Array(width * width); // row j = column j of M, zero below i <= j
+      fillGaussian(mt, 40 + width);
+      for (let j = 0; j < width; j++) for (let i = j + 1; i < width; i++) mt[j * width + i] = 0;
+      const expected = new Float64Array(n * width);
+      for (let r = 0; r < n; r++) {
+        for (let j = 0; j < width; j++) {
+          let s = 0;
+          for (let i = 0; i <= j; i++) s += y[r * width + i] * mt[j * width + i];
+          expected[r * width + j] = s;
+        }
+      }
+      timesSmall(y, width, mt, width, y, 0, n, true);
+      for (let i = 0; i < y.length; i++) expect(y[i]).toBeCloseTo(expected[i], 12);
+    }
+  });
 });

