@@ -156,7 +156,7 @@ export function nearestTerms(
     power = 0.5;
   }
   const { rows, invNorms } = scaledTermRows(space, power);
-  const top = topCosine(rows, k, space.nTerms, invNorms, x, n, { exclude });
+  const top = topCosine(rows, k, space.nTerms, invNorms, x, n, { exclude, quantised: true });
   return Array.from(top.indices, (i, r) => ({
     term: space.terms[i],
     label: space.labels[i],

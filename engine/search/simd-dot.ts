@@ -213,3 +213,213 @@ export function simdDots(
   b.dots(b.query, b.rows, count, stride, b.scores, summed);
   return new Float32Array(b.memory.buffer, b.scores, count);
 }
+
+/**
+ * Exact dot products (the same kernel, so the same bits as simdDots) of `query` with
+ * the listed rows only, or null when `rows` was not allocated by allocateRows. The
+ * result (one per listed row, in order) is a view valid until the next call.
+ */
+export function simdDotsAt(
+  rows: Float32Array,
+  stride: number,
+  indices: Int32Array,
+  count: number,
+  query: ArrayLike<number>,
+  dims = stride,
+): Float32Array | null {
+  const b = backings.get(rows.buffer);
+  if (!b || b.k !== stride || rows.byteOffset !== b.rows || count > b.capacity) return null;
+  const summed = Math.max(4, Math.min(stride, Math.ceil(dims / 4) * 4));
+  const q = new Float32Array(b.memory.buffer, b.query, stride);
+  for (let c = 0; c < summed; c++) q[c] = c < dims ? query[c] : 0;
+  const rowBytes = stride * 4;
+  for (let i = 0; i < count; i++)
+    b.dots(b.query, b.rows + indices[i] * rowBytes, 1, stride, b.scores + i * 4, summed);
+  return new Float32Array(b.memory.buffer, b.scores, count);
+}
+
+// An int8 copy of unit-normalised rows for a cheap first pass (a quarter of the
+// memory traffic of Float32; the document and term matrices of a large matter do not
+// fit in cache, so the pass is bound by memory bandwidth). `dots8(q, rows, n, d, out)`:
+// out[j] = sum_{c < d} q[c] * rows[j*d + c] in exact int32 arithmetic, q int16, rows
+// int8, d a multiple of 8 (v128.load8x8_s widens eight int8 to int16 lanes;
+// i32x4.dot_i16x8_s multiplies and adds pairs; WebAssembly 2.0 SIMD).
+
+// prettier-ignore
+const DOTS8_HEADER = new Uint8Array([
+  0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
+  // type section: (i32 i32 i32 i32 i32) -> ()
+  0x01, 0x09, 0x01, 0x60, 0x05, 0x7f, 0x7f, 0x7f, 0x7f, 0x7f, 0x00,
+  // import section: env.mem, memory, min 1 page
+  0x02, 0x0c, 0x01, 0x03, 0x65, 0x6e, 0x76, 0x03, 0x6d, 0x65, 0x6d, 0x02, 0x00, 0x01,
+  // function section
+  0x03, 0x02, 0x01, 0x00,
+  // export section: "dots8" = func 0
+  0x07, 0x09, 0x01, 0x05, 0x64, 0x6f, 0x74, 0x73, 0x38, 0x00, 0x00,
+]);
+
+const [Q8, ROWS8, N8, D8, OUT8] = [0, 1, 2, 3, 4];
+const [C8, ACC8] = [5, 6];
+const load8x8s = [0xfd, 0x01, 0x00, 0x00]; // v128.load8x8_s, align 1, offset 0
+const i32x4Dot = [0xfd, 0xba, 0x01]; // i32x4.dot_i16x8_s
+const i32x4Add = [0xfd, 0xae, 0x01];
+const i32Lane = (l: number) => [0xfd, 0x1b, l]; // i32x4.extract_lane
+const i32Store = [0x36, 0x02, 0x00];
+
+// prettier-ignore
+const DOTS8_BODY = [
+  0x02, 0x01, 0x7f, 0x01, 0x7b, // locals: c i32, acc v128
+  ...block,
+  ...get(N8), op.eqz, ...brIf(0),
+  ...loop, // rows
+  ...v128Zero, ...set(ACC8),
+  ...i32(0), ...set(C8),
+  ...loop, // eight axes at a time: acc += dot(widen(rows[c..c+8]), q[c..c+8])
+  ...get(ACC8),
+  ...get(ROWS8), ...get(C8), op.add, ...load8x8s,
+  ...get(Q8), ...get(C8), ...get(C8), op.add, op.add, ...v128Load,
+  ...i32x4Dot, ...i32x4Add, ...set(ACC8),
+  ...get(C8), ...i32(8), op.add, ...tee(C8), ...get(D8), op.ltU, ...brIf(0),
+  op.end,
+  ...get(OUT8),
+  ...get(ACC8), ...i32Lane(0), ...get(ACC8), ...i32Lane(1), op.add,
+  ...get(ACC8), ...i32Lane(2), op.add, ...get(ACC8), ...i32Lane(3), op.add,
+  ...i32Store,
+  ...get(ROWS8), ...get(D8), op.add, ...set(ROWS8),
+  ...get(OUT8), ...i32(4), op.add, ...set(OUT8),
+  ...get(N8), ...i32(1), op.sub, ...tee(N8), ...brIf(0),
+  op.end, // rows
+  op.end, // block
+  op.end, // function
+];
+
+const CODE8 = [0x01, ...leb128(DOTS8_BODY.length), ...DOTS8_BODY];
+const DOTS8_WASM = new Uint8Array([...DOTS8_HEADER, 0x0a, ...leb128(CODE8.length), ...CODE8]);
+let module8: WebAssembly.Module | null | undefined;
+
+function dots8Module(): WebAssembly.Module | null {
+  if (module8 === undefined) {
+    try {
+      module8 = WebAssembly.validate(DOTS8_WASM) ? new WebAssembly.Module(DOTS8_WASM) : null;
+    } catch {
+      module8 = null;
+    }
+  }
+  return module8;
+}
+
+/** Unit rows (row * invNorm over the first `dims` axes) rounded to int8 with a scale per row. */
+export interface Int8Rows {
+  count: number;
+  /** The axes summed, `dims` rounded up to a multiple of 8 (the extra axes are zero). */
+  dims: number;
+  /** Row j is about scales[j] * its int8 values. */
+  scales: Float64Array;
+  /** ||unit row j - scales[j] * int8 row j||_2, exactly as rounded (Float64). */
+  errors: Float64Array;
+  /** The largest of `errors`. */
+  maxError: number;
+  dots8: (q: number, rows: number, n: number, d: number, out: number) => void;
+  memory: WebAssembly.Memory;
+  /** Byte offsets of the int16 query, the int8 rows and the int32 results. */
+  query: number;
+  rows: number;
+  out: number;
+}
+
+/**
+ * The int8 copy of the first `count` unit rows over their first `dims` axes, or null
+ * when WebAssembly SIMD is not available. A zero row (invNorm 0) is all zeros.
+ */
+export function quantiseUnitRows(
+  rows: Float32Array,
+  stride: number,
+  count: number,
+  invNorms: Float32Array,
+  dims: number,
+): Int8Rows | null {
+  const mod = dots8Module();
+  if (!mod || count === 0) return null;
+  const d = Math.ceil(dims / 8) * 8;
+  const query = 0;
+  const rowsAt = Math.ceil((d * 2) / 16) * 16;
+  const out = rowsAt + Math.ceil((count * d) / 16) * 16;
+  const bytes = out + count * 4;
+  if (bytes > 2 ** 31) return null;
+  let memory: WebAssembly.Memory;
+  try {
+    memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE) });
+  } catch {
+    return null;
+  }
+  const instance = new WebAssembly.Instance(mod, { env: { mem: memory } });
+  const q8 = new Int8Array(memory.buffer, rowsAt, count * d);
+  const scales = new Float64Array(count);
+  const errors = new Float64Array(count);
+  let maxError = 0;
+  const unit = new Float64Array(dims);
+  for (let j = 0; j < count; j++) {
+    const o = j * stride;
+    const inv = invNorms[j];
+    let max = 0;
+    for (let c = 0; c < dims; c++) {
+      const v = rows[o + c] * inv;
+      unit[c] = v;
+      if (Math.abs(v) > max) max = Math.abs(v);
+    }
+    if (!(max > 0)) continue; // a zero row: scale 0, error 0
+    const s = max / 127;
+    let err = 0;
+    for (let c = 0; c < dims; c++) {
+      const n = Math.max(-127, Math.min(127, Math.round(unit[c] / s)));
+      q8[j * d + c] = n;
+      const e = unit[c] - s * n;
+      err += e * e;
+    }
+    scales[j] = s;
+    errors[j] = Math.sqrt(err);
+    if (errors[j] > maxError) maxError = errors[j];
+  }
+  return {
+    count,
+    dims: d,
+    scales,
+    errors,
+    maxError,
+    dots8: instance.exports.dots8 as Int8Rows['dots8'],
+    memory,
+    query,
+    rows: rowsAt,
+    out,
+  };
+}
+
+/**
+ * Approximate cosines of a unit query with every quantised row: approx[j] is within
+ * errors[j] + queryError * (1 + errors[j]) of (unit row j) . query, where queryError
+ * = ||query - its int16 rounding||_2 (Cauchy-Schwarz on the two rounding errors).
+ */
+export function int8Cosines(
+  q: Int8Rows,
+  query: ArrayLike<number>,
+): { approx: Float64Array; queryError: number } {
+  let max = 0;
+  const n = Math.min(query.length, q.dims);
+  for (let c = 0; c < n; c++) if (Math.abs(query[c]) > max) max = Math.abs(query[c]);
+  const approx = new Float64Array(q.count);
+  if (!(max > 0)) return { approx, queryError: 0 };
+  const t = max / 32767;
+  const q16 = new Int16Array(q.memory.buffer, q.query, q.dims);
+  let err = 0;
+  for (let c = 0; c < q.dims; c++) {
+    const v = c < n ? query[c] : 0;
+    const r = Math.max(-32767, Math.min(32767, Math.round(v / t)));
+    q16[c] = r;
+    const e = v - t * r;
+    err += e * e;
+  }
+  q.dots8(q.query, q.rows, q.count, q.dims, q.out);
+  const dots = new Int32Array(q.memory.buffer, q.out, q.count);
+  for (let j = 0; j < q.count; j++) approx[j] = q.scales[j] * t * dots[j];
+  return { approx, queryError: Math.sqrt(err) };
+}

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { mulberry32 } from '../linalg/random';
 import { allocateRows } from './simd-dot';
-import { topCosine } from './top-n';
+import { quantisedTop, topCosine } from './top-n';
 
 // Checked against a plain full sort of exact (Float64) cosines: common practice for
 // testing a partial-selection top-N.
@@ -104,4 +104,66 @@ describe('topCosine', () => {
       0,
     );
   });
+});
+
+// The int8 first pass must change nothing: same rows, same order, same score bits as
+// the full Float32 pass, whatever the limit, prefix, mask, excluded row or cut-off.
+describe('topCosine with the int8 first pass', () => {
+  const n = 6000;
+  const k = 24;
+  const rand = mulberry32(29);
+  const rows = allocateRows(n, k);
+  // Clustered rows (60 centres plus noise), so many cosines sit close together.
+  const centres = Array.from({ length: 60 }, () => Array.from({ length: k }, () => rand() - 0.5));
+  for (let j = 0; j < n; j++) {
+    const centre = centres[j % 60];
+    for (let c = 0; c < k; c++) rows[j * k + c] = centre[c] + 0.15 * (rand() - 0.5);
+  }
+  for (let c = 0; c < k; c++) rows[17 * k + c] = 0; // a zero row
+  for (let c = 0; c < k; c++) rows[18 * k + c] = rows[19 * k + c]; // an exact tie
+  const allow = new Uint8Array(n);
+  for (let j = 0; j < n; j += 3) allow[j] = 1;
+  const cases = [
+    { limit: 10 },
+    { limit: 1 },
+    { limit: 200, dims: 16 },
+    { limit: 50, dims: 13 },
+    { limit: 1000, minScore: 0.6 },
+    { limit: 5000, minScore: 0.7 },
+    { limit: 40, allow, exclude: 3 },
+  ];
+  for (const [i, options] of cases.entries()) {
+    it(`case ${i + 1}: ${JSON.stringify({ ...options, allow: options.allow ? 'every third' : undefined })}`, () => {
+      // Near one row, as a "more like this" query is: its cluster scores high.
+      const q = Float64Array.from(
+        { length: k },
+        (_, c) => rows[(i * 7 + 100) * k + c] + 0.1 * (rand() - 0.5),
+      );
+      const dims = options.dims ?? k;
+      const inv = inverseNorms(rows, k, n, dims);
+      const plain = topCosine(rows, k, n, inv, q, options.limit, options);
+      const viaInt8 = topCosine(rows, k, n, inv, q, options.limit, { ...options, quantised: true });
+      expect(Array.from(viaInt8.indices)).toEqual(Array.from(plain.indices));
+      expect(Array.from(viaInt8.scores)).toEqual(Array.from(plain.scores));
+      expect(plain.indices.length).toBeGreaterThan(0);
+      // The first pass itself answered (it did not fall back to the full pass).
+      let qn = 0;
+      for (let c = 0; c < dims; c++) qn += q[c] * q[c];
+      const unit = Float64Array.from({ length: dims }, (_, c) => q[c] / Math.sqrt(qn));
+      const direct = quantisedTop(
+        rows,
+        k,
+        n,
+        inv,
+        unit,
+        options.limit,
+        dims,
+        options.allow,
+        options.exclude ?? -1,
+        options.minScore ?? -Infinity,
+      );
+      expect(direct).not.toBeNull();
+      expect(Array.from(direct!.indices)).toEqual(Array.from(plain.indices));
+    });
+  }
 });

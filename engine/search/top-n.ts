@@ -3,7 +3,7 @@
 // Rows allocated by simd-dot.ts (the concept space's document matrix) get their dot
 // products from a WebAssembly SIMD kernel (Float32 accumulation); others use the
 // scalar loop (Float64 accumulation).
-import { simdDots } from './simd-dot';
+import { int8Cosines, quantiseUnitRows, simdDots, simdDotsAt, type Int8Rows } from './simd-dot';
 
 export interface TopN {
   /** Row indices, best first (ties: lower index first). */
@@ -20,6 +20,13 @@ export interface TopNOptions {
   exclude?: number;
   /** Keep only scores at or above this (a cut-off the caller applies anyway; saves heap work). */
   minScore?: number;
+  /**
+   * Allow an int8 first pass (see topCosine). Only for rows that do not change while
+   * `invNorms` is the same array, which identifies them in a cache: true of
+   * ConceptSpace.inverseNorms (recomputed whenever a vector changes) and of the
+   * scaled term rows.
+   */
+  quantised?: boolean;
 }
 
 /** Min-heap on (score, -index): the root is the weakest kept hit. */
@@ -94,6 +101,87 @@ class MinHeap {
   }
 }
 
+/** Matrices smaller than this stay in cache; the int8 pass would not pay for itself. */
+export const QUANTISED_MIN_ROWS = 2048;
+/** Covers the Float32 rounding of the exact scores (about 1e-5 at k = 200) with room to spare. */
+const EXACT_ROUNDING_MARGIN = 1e-4;
+
+const int8Cache = new WeakMap<Float32Array, Map<number, Int8Rows | null>>();
+
+function int8RowsFor(
+  rows: Float32Array,
+  stride: number,
+  count: number,
+  invNorms: Float32Array,
+  dims: number,
+): Int8Rows | null {
+  let perDims = int8Cache.get(invNorms);
+  if (!perDims) int8Cache.set(invNorms, (perDims = new Map()));
+  let q8 = perDims.get(dims);
+  if (q8 === undefined || (q8 !== null && q8.count !== count)) {
+    q8 = quantiseUnitRows(rows, stride, count, invNorms, dims);
+    perDims.set(dims, q8);
+  }
+  return q8;
+}
+
+/**
+ * The exact top-N through an int8 first pass, or null when it would not save work
+ * (or the rows are not in WebAssembly memory). `q` is the unit query over `dims`.
+ * Every row's approximate cosine a_j is within b_j of its exact one (int8Cosines,
+ * plus EXACT_ROUNDING_MARGIN). With T = (the limit-th best a_j) - max b_j, at least
+ * `limit` rows score T or more exactly, so every row of the true top-N has an exact
+ * score of at least max(T, minScore) and passes a_j + b_j >= max(T, minScore). Only
+ * those candidates get exact scores, from the same Float32 kernel as the full pass,
+ * so the result (ids, order, score bits) is the full pass's.
+ */
+export function quantisedTop(
+  rows: Float32Array,
+  stride: number,
+  count: number,
+  invNorms: Float32Array,
+  q: Float64Array,
+  limit: number,
+  dims: number,
+  allow: Uint8Array | undefined,
+  exclude: number,
+  floor: number,
+): TopN | null {
+  if (simdDotsAt(rows, stride, new Int32Array(0), 0, q, dims) === null) return null;
+  const q8 = int8RowsFor(rows, stride, count, invNorms, dims);
+  if (!q8) return null;
+  const { approx, queryError } = int8Cosines(q8, q);
+  const slack = (j: number) =>
+    q8.errors[j] + queryError * (1 + q8.errors[j]) + EXACT_ROUNDING_MARGIN;
+  const eligible = (j: number) => (allow === undefined || allow[j] !== 0) && j !== exclude;
+  const rough = new MinHeap(Math.min(limit, count));
+  for (let j = 0; j < count; j++) {
+    if (!eligible(j)) continue;
+    const a = approx[j];
+    if (a + slack(j) < floor) continue;
+    if (a > rough.minScore || rough.size < rough.capacity) rough.offer(a, j);
+  }
+  const maxSlack = q8.maxError + queryError * (1 + q8.maxError) + EXACT_ROUNDING_MARGIN;
+  const threshold =
+    rough.size === rough.capacity ? Math.max(floor, rough.minScore - maxSlack) : floor;
+  const candidates = new Int32Array(count);
+  let m = 0;
+  for (let j = 0; j < count; j++)
+    if (eligible(j) && approx[j] + slack(j) >= threshold) candidates[m++] = j;
+  // Gathering scattered rows costs more than streaming them once past about a quarter.
+  if (m > count / 4) return null;
+  const exact = simdDotsAt(rows, stride, candidates, m, q, dims);
+  if (!exact) return null;
+  const heap = new MinHeap(Math.max(1, Math.min(limit, m)));
+  for (let i = 0; i < m; i++) {
+    const j = candidates[i];
+    const score = exact[i] * invNorms[j];
+    if (score < floor) continue;
+    if (score > heap.minScore || heap.size < heap.capacity) heap.offer(score, j);
+  }
+  return heap.sorted();
+}
+
 /**
  * The `limit` rows of `rows` (count x stride) with the highest cosine to `query`.
  * `invNorms[j]` = 1/||row j|| over the same dims (0 for a zero row, which scores 0).
@@ -119,6 +207,10 @@ export function topCosine(
   const allow = options.allow;
   const exclude = options.exclude ?? -1;
   const floor = options.minScore ?? -Infinity;
+  if (options.quantised && count >= QUANTISED_MIN_ROWS) {
+    const top = quantisedTop(rows, stride, count, invNorms, q, limit, dims, allow, exclude, floor);
+    if (top) return top;
+  }
   const fast = simdDots(rows, stride, count, q, dims);
   if (fast) {
     for (let j = 0; j < count; j++) {

@@ -99,6 +99,7 @@ function conceptList(
       allow: options.allow,
       exclude: options.exclude,
       minScore: options.minCosine,
+      quantised: true,
     },
   );
   const out: Scored<number>[] = [];
