@@ -395,31 +395,43 @@ export function quantiseUnitRows(
 }
 
 /**
- * Approximate cosines of a unit query with every quantised row: approx[j] is within
- * errors[j] + queryError * (1 + errors[j]) of (unit row j) . query, where queryError
- * = ||query - its int16 rounding||_2 (Cauchy-Schwarz on the two rounding errors).
+ * The int8 pass: dots[j] * scales[j] * step approximates (unit row j) . query, within
+ * errors[j] + queryError * (1 + errors[j]), where queryError = ||query - its int16
+ * rounding||_2 (Cauchy-Schwarz on the two rounding errors). `dots` is a view valid
+ * until the next call.
  */
-export function int8Cosines(
+export function int8Dots(
   q: Int8Rows,
   query: ArrayLike<number>,
-): { approx: Float64Array; queryError: number } {
+): { dots: Int32Array; step: number; queryError: number } {
   let max = 0;
   const n = Math.min(query.length, q.dims);
   for (let c = 0; c < n; c++) if (Math.abs(query[c]) > max) max = Math.abs(query[c]);
-  const approx = new Float64Array(q.count);
-  if (!(max > 0)) return { approx, queryError: 0 };
-  const t = max / 32767;
+  const step = max > 0 ? max / 32767 : 0;
   const q16 = new Int16Array(q.memory.buffer, q.query, q.dims);
   let err = 0;
   for (let c = 0; c < q.dims; c++) {
     const v = c < n ? query[c] : 0;
-    const r = Math.max(-32767, Math.min(32767, Math.round(v / t)));
+    const r = step > 0 ? Math.max(-32767, Math.min(32767, Math.round(v / step))) : 0;
     q16[c] = r;
-    const e = v - t * r;
+    const e = v - step * r;
     err += e * e;
   }
   q.dots8(q.query, q.rows, q.count, q.dims, q.out);
-  const dots = new Int32Array(q.memory.buffer, q.out, q.count);
-  for (let j = 0; j < q.count; j++) approx[j] = q.scales[j] * t * dots[j];
-  return { approx, queryError: Math.sqrt(err) };
+  return {
+    dots: new Int32Array(q.memory.buffer, q.out, q.count),
+    step,
+    queryError: Math.sqrt(err),
+  };
+}
+
+/** Approximate cosines of a unit query with every quantised row (int8Dots, scaled). */
+export function int8Cosines(
+  q: Int8Rows,
+  query: ArrayLike<number>,
+): { approx: Float64Array; queryError: number } {
+  const { dots, step, queryError } = int8Dots(q, query);
+  const approx = new Float64Array(q.count);
+  for (let j = 0; j < q.count; j++) approx[j] = q.scales[j] * step * dots[j];
+  return { approx, queryError };
 }

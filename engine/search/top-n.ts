@@ -3,7 +3,7 @@
 // Rows allocated by simd-dot.ts (the concept space's document matrix) get their dot
 // products from a WebAssembly SIMD kernel (Float32 accumulation); others use the
 // scalar loop (Float64 accumulation).
-import { int8Cosines, quantiseUnitRows, simdDots, simdDotsAt, type Int8Rows } from './simd-dot';
+import { int8Dots, quantiseUnitRows, simdDots, simdDotsAt, type Int8Rows } from './simd-dot';
 
 export interface TopN {
   /** Row indices, best first (ties: lower index first). */
@@ -150,24 +150,35 @@ export function quantisedTop(
   if (simdDotsAt(rows, stride, new Int32Array(0), 0, q, dims) === null) return null;
   const q8 = int8RowsFor(rows, stride, count, invNorms, dims);
   if (!q8) return null;
-  const { approx, queryError } = int8Cosines(q8, q);
-  const slack = (j: number) =>
-    q8.errors[j] + queryError * (1 + q8.errors[j]) + EXACT_ROUNDING_MARGIN;
-  const eligible = (j: number) => (allow === undefined || allow[j] !== 0) && j !== exclude;
-  const rough = new MinHeap(Math.min(limit, count));
-  for (let j = 0; j < count; j++) {
-    if (!eligible(j)) continue;
-    const a = approx[j];
-    if (a + slack(j) < floor) continue;
-    if (a > rough.minScore || rough.size < rough.capacity) rough.offer(a, j);
-  }
-  const maxSlack = q8.maxError + queryError * (1 + q8.maxError) + EXACT_ROUNDING_MARGIN;
-  const threshold =
-    rough.size === rough.capacity ? Math.max(floor, rough.minScore - maxSlack) : floor;
+  const { dots, step, queryError } = int8Dots(q8, q);
+  const { scales, errors } = q8;
+  // Row j's bound: errors[j] + queryError * (1 + errors[j]) + margin.
+  const grow = 1 + queryError;
+  const base = queryError + EXACT_ROUNDING_MARGIN;
+  // Candidates: the rows whose upper bound reaches the cut-off ...
   const candidates = new Int32Array(count);
   let m = 0;
-  for (let j = 0; j < count; j++)
-    if (eligible(j) && approx[j] + slack(j) >= threshold) candidates[m++] = j;
+  for (let j = 0; j < count; j++) {
+    if ((allow !== undefined && allow[j] === 0) || j === exclude) continue;
+    if (scales[j] * step * dots[j] + errors[j] * grow + base >= floor) candidates[m++] = j;
+  }
+  if (m > limit) {
+    // ... and, when more than `limit` do, the threshold T = (limit-th best
+    // approximation among them) - the largest bound.
+    const rough = new MinHeap(limit);
+    for (let i = 0; i < m; i++) {
+      const j = candidates[i];
+      const a = scales[j] * step * dots[j];
+      if (rough.size < limit || a > rough.scores[0]) rough.offer(a, j);
+    }
+    const threshold = Math.max(floor, rough.scores[0] - (q8.maxError * grow + base));
+    let kept = 0;
+    for (let i = 0; i < m; i++) {
+      const j = candidates[i];
+      if (scales[j] * step * dots[j] + errors[j] * grow + base >= threshold) candidates[kept++] = j;
+    }
+    m = kept;
+  }
   // Gathering scattered rows costs more than streaming them once past about a quarter.
   if (m > count / 4) return null;
   const exact = simdDotsAt(rows, stride, candidates, m, q, dims);
