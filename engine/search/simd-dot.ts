@@ -357,23 +357,28 @@ export function quantiseUnitRows(
   const scales = new Float64Array(count);
   const errors = new Float64Array(count);
   let maxError = 0;
-  const unit = new Float64Array(dims);
   for (let j = 0; j < count; j++) {
     const o = j * stride;
     const inv = invNorms[j];
     let max = 0;
     for (let c = 0; c < dims; c++) {
-      const v = rows[o + c] * inv;
-      unit[c] = v;
-      if (Math.abs(v) > max) max = Math.abs(v);
+      const v = rows[o + c];
+      if (v > max) max = v;
+      else if (-v > max) max = -v;
     }
-    if (!(max > 0)) continue; // a zero row: scale 0, error 0
-    const s = max / 127;
+    const s = (max * inv) / 127;
+    if (!(s > 0)) continue; // a zero row: scale 0, error 0
+    // Any rounding of unit / s works: the error is measured from the values stored.
+    const toSteps = inv / s;
+    const od = j * d;
     let err = 0;
     for (let c = 0; c < dims; c++) {
-      const n = Math.max(-127, Math.min(127, Math.round(unit[c] / s)));
-      q8[j * d + c] = n;
-      const e = unit[c] - s * n;
+      const v = rows[o + c];
+      let n = Math.round(v * toSteps);
+      if (n > 127) n = 127;
+      else if (n < -127) n = -127;
+      q8[od + c] = n;
+      const e = v * inv - s * n;
       err += e * e;
     }
     scales[j] = s;
