@@ -313,23 +313,26 @@ export class ConceptSpace {
 
     const sigma = svd.s.slice(0, k);
     const termVectors = new Float32Array(m * k);
-    const u64 = new Float64Array(m * k);
     for (let i = 0; i < m; i++) {
-      for (let c = 0; c < k; c++) {
-        const v = svd.U[i * svd.k + c];
-        u64[i * k + c] = v;
-        termVectors[i * k + c] = v;
-      }
+      for (let c = 0; c < k; c++) termVectors[i * k + c] = svd.U[i * svd.k + c];
     }
-    const v64 = new Float64Array(n * k);
     const docVectors = new Float32Array(n * k);
     for (let j = 0; j < n; j++) {
       for (let c = 0; c < k; c++) {
         const v = svd.V[j * svd.k + c];
-        v64[j * k + c] = v;
         docVectors[j * k + c] = scaling === 'projection' ? v * sigma[c] : v;
       }
     }
+    // Orthogonality of the kept k columns, in double precision; a copy only when k was
+    // lowered below the SVD's (at 100k documents a copy of U is ~0.6 GB).
+    const firstColumns = (q: Float64Array, rows: number) => {
+      if (svd.k === k) return q;
+      const out = new Float64Array(rows * k);
+      for (let i = 0; i < rows; i++) out.set(q.subarray(i * svd.k, i * svd.k + k), i * k);
+      return out;
+    };
+    const orthogonalityU = orthogonalityError(firstColumns(svd.U, m), m, k);
+    const orthogonalityV = orthogonalityError(firstColumns(svd.V, n), n, k);
     let emptyDocuments = 0;
     for (let j = 0; j < n; j++) if (tokensPerDoc[j] === 0) emptyDocuments++;
     if (emptyDocuments > 0) notices.push(`${emptyDocuments} document(s) contain no index term`);
@@ -366,8 +369,8 @@ export class ConceptSpace {
       conditionNumber: conditionNumber(sigma),
       frobeniusSq,
       energy: energyKept(sigma, frobeniusSq),
-      orthogonalityU: orthogonalityError(u64, m, k),
-      orthogonalityV: orthogonalityError(v64, n, k),
+      orthogonalityU,
+      orthogonalityV,
       buildMs: performance.now() - started,
       svdMs: svd.ms,
       svdMethod: svd.method,
