@@ -198,6 +198,7 @@ async function main() {
       },
     ];
     for (let w = 0; w < 5; w++) await agent.post(url).send(kinds[w % kinds.length].body());
+    const loadBefore = loadavg();
     const rows: { name: string; e2e: number[]; server: number[]; hits: number[] }[] = [];
     for (const kind of kinds) {
       const e2e: number[] = [];
@@ -221,6 +222,8 @@ async function main() {
       });
       console.log(kind.name, 'p50', pct(e2e, 50).toFixed(1), 'p95', pct(e2e, 95).toFixed(1));
     }
+    const loadAfter = loadavg();
+    const loads = (l: number[]) => l.map((x) => x.toFixed(1)).join(' / ');
     const all = rows.flatMap((r) => r.e2e).sort((a, b) => a - b);
     const f = (x: number) => x.toFixed(1);
     const section = [
@@ -233,10 +236,12 @@ async function main() {
       'and why-it-matched, the audit row written), after 5 warm-up searches. "End to end" is the client-side time of the request;',
       '"server" is the response\'s `tookMs` (ranking, filters, sorting, page enrichment; the audit insert comes after it).',
       '',
-      `Machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), load average ${loadavg()
-        .map((l) => l.toFixed(1))
-        .join(' / ')} at the end of the run`,
-      '(the machine was shared with other jobs; times are inflated accordingly).',
+      `Machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), load average (1 / 5 / 15 min) ${loads(loadBefore)}`,
+      `when the timed searches began and ${loads(loadAfter)} at the end${
+        Math.max(loadBefore[0], loadAfter[0]) > 1.2
+          ? ` (this run takes about one core: the rest was other jobs sharing the machine, and times are inflated accordingly).`
+          : '.'
+      }`,
       '',
       '| Search | End to end p50 (ms) | End to end p95 (ms) | Server p50 (ms) | Server p95 (ms) | Hits (median) |',
       '| --- | ---: | ---: | ---: | ---: | ---: |',
