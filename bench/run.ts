@@ -314,6 +314,8 @@ async function main() {
             quarryMedianRelErr: oursErr.median,
             sklearnMaxRelErr: sklErr.max,
             sklearnMedianRelErr: sklErr.median,
+            propackValues: run.propack_values,
+            sklearnValues: run.randomized_values,
           };
           (entry.reference as { runs: unknown[] }).runs.push(cmp);
           log(

@@ -290,6 +290,12 @@ export class SpmmArena {
     return at === null ? null : new Float64Array(this.memory.buffer, at, length);
   }
 
+  /** A zeroed Int32Array in the arena, or null when the arena cannot grow that far. */
+  int32(length: number): Int32Array | null {
+    const at = this.reserve(length * 4);
+    return at === null ? null : new Int32Array(this.memory.buffer, at, length);
+  }
+
   /** A copy of `a` in the arena, or null when it does not fit. */
   placeCsr(a: CsrMatrix): ArenaCsr | null {
     const nnz = a.rowPtr[a.rows];

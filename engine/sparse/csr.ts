@@ -106,14 +106,25 @@ export function csrFromTriplets(
 }
 
 /** A^T in CSR form (equivalently A in CSC form), so A^T x block products can gather. */
-export function transposeCsr(a: CsrMatrix): CsrMatrix {
+/** Where a routine puts the (zeroed) arrays it returns, e.g. a shared WebAssembly memory. */
+export interface ArrayStorage {
+  int32(length: number): Int32Array;
+  float64(length: number): Float64Array;
+}
+
+export const ordinaryArrays: ArrayStorage = {
+  int32: (length) => new Int32Array(length),
+  float64: (length) => new Float64Array(length),
+};
+
+export function transposeCsr(a: CsrMatrix, storage: ArrayStorage = ordinaryArrays): CsrMatrix {
   const nnz = a.rowPtr[a.rows];
-  const rowPtr = new Int32Array(a.cols + 1);
+  const rowPtr = storage.int32(a.cols + 1);
   for (let p = 0; p < nnz; p++) rowPtr[a.colIdx[p] + 1]++;
   for (let j = 0; j < a.cols; j++) rowPtr[j + 1] += rowPtr[j];
   const next = rowPtr.slice(0, a.cols);
-  const colIdx = new Int32Array(nnz);
-  const values = new Float64Array(nnz);
+  const colIdx = storage.int32(nnz);
+  const values = storage.float64(nnz);
   for (let i = 0; i < a.rows; i++) {
     for (let p = a.rowPtr[i]; p < a.rowPtr[i + 1]; p++) {
       const dest = next[a.colIdx[p]]++;
