@@ -28,7 +28,7 @@ export interface SearchOptions {
   /** Required for keyword and hybrid modes. */
   keyword?: KeywordSource;
   hybrid?: { keywordWeight?: number; conceptDims?: number };
-  /** How deep each list goes before fusion (default 1000). */
+  /** How deep each list goes before fusion (default 1000; concept mode: the page). */
   depth?: number;
 }
 
@@ -85,10 +85,9 @@ export function conceptRanking(
     space.inverseNorms(dims),
     vector,
     depth,
-    {
-      dims,
-      allow: options.allow,
-    },
+    // The int8 first pass (top-n.ts) is exact here: ConceptSpace.inverseNorms is
+    // recomputed whenever a document vector changes.
+    { dims, allow: options.allow, quantised: true },
   );
   const ranked: Scored<DocId>[] = [];
   for (let r = 0; r < top.indices.length; r++)
@@ -107,7 +106,9 @@ export function search(
 ): SearchResult {
   const limit = options.limit ?? 50;
   const offset = options.offset ?? 0;
-  const depth = Math.max(options.depth ?? 1000, limit + offset);
+  // Fusion needs each list deeper than the page; a concept-only ranking does not.
+  const defaultDepth = options.mode === 'concept' ? 0 : 1000;
+  const depth = Math.max(options.depth ?? defaultDepth, limit + offset);
   const notices: string[] = [];
   const mode = options.mode;
   if (!SEARCH_MODES.includes(mode))
