@@ -21,6 +21,7 @@ const { diagnostics } = ConceptSpace.fromCounts(
   collection.counts,
   Array.from({ length: docs }, (_, d) => d + 1),
   { k },
+  { countsDisposable: true }, // as ConceptSpace.build does with its own counts
 );
 console.log(
   JSON.stringify({

@@ -239,7 +239,7 @@ export class ConceptSpace {
       tdm.counts,
       docs.map((d) => d.id),
       options,
-      { started, tokensPerDoc: tdm.tokensPerDoc, labels: tdm.labels },
+      { started, tokensPerDoc: tdm.tokensPerDoc, labels: tdm.labels, countsDisposable: true },
     );
   }
 
@@ -253,7 +253,13 @@ export class ConceptSpace {
     counts: CsrMatrix,
     docIds: DocId[],
     options: ConceptSpaceOptions = {},
-    extra: { started?: number; tokensPerDoc?: Int32Array; labels?: string[] } = {},
+    extra: {
+      started?: number;
+      tokensPerDoc?: Int32Array;
+      labels?: string[];
+      /** The caller is done with `counts`: its values may be overwritten by the weights. */
+      countsDisposable?: boolean;
+    } = {},
   ): { space: ConceptSpace; diagnostics: BuildDiagnostics } {
     const started = extra.started ?? performance.now();
     const { k: requestedK, weighting, scaling, minDf } = checkOptions(options);
@@ -275,7 +281,7 @@ export class ConceptSpace {
     }
     options.onProgress?.(0.05);
     const g = globalWeights(weighting, counts);
-    const a = applyWeights(weighting, counts, g);
+    const a = applyWeights(weighting, counts, g, extra.countsDisposable === true);
     const frobeniusSq = frobeniusNormSq(a);
     if (!(frobeniusSq > 0)) {
       throw new EngineInputError(
