@@ -45,6 +45,7 @@ export {
 export { fuseScores, minMaxNormalise, type FusedHit, type Scored } from './search/fusion';
 export {
   search,
+  prepareForSearch,
   similarDocuments,
   conceptRanking,
   DEFAULT_HYBRID,

@@ -13,6 +13,7 @@ import {
   type IndexTables,
 } from '../../engine/index/persist';
 import type { Weighting } from '../../engine/index/weighting';
+import { prepareForSearch } from '../../engine/search/search';
 import {
   automaticK,
   type IndexStateResponse,
@@ -151,6 +152,7 @@ export class IndexService {
         const row = await findIndexVersion(this.db, indexId);
         if (!row) return null;
         const space = await loadConceptSpace(this.indexDb, indexId);
+        prepareForSearch(space);
         const loaded = { indexId, version: row.version, space };
         this.cache.set(matterId, loaded);
         return loaded;
@@ -210,6 +212,7 @@ export class IndexService {
         rows.map((row) => ({ id: row.id, title: row.title, text: row.body })),
       );
       await saveFoldedDocuments(this.indexDb, loaded.indexId, folded);
+      prepareForSearch(loaded.space); // the new vectors reset the search caches
       this.logger.info({ matterId, documents: folded.length }, 'documents folded into the index');
       return folded.length;
     });
