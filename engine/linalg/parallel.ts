@@ -139,15 +139,17 @@ export interface ParallelOperator extends BlockOperator {
 
 /** A and A^T products on `threads` (1 or 2) threads, in WebAssembly SIMD where possible. */
 export function parallelCsrOperator(a: CsrMatrix, threads = 2): ParallelOperator {
-  const arena = SpmmArena.create(2 * 12 * nnzOf(a) + 4 * (a.rows + a.cols + 2) + 256);
+  const candidate = SpmmArena.create(2 * 12 * nnzOf(a) + 4 * (a.rows + a.cols + 2) + 256);
   let mats: [CsrMatrix, CsrMatrix] | null = null;
-  if (arena) {
-    const pa = arena.placeCsr(a);
+  if (candidate) {
+    const pa = candidate.placeCsr(a);
     // A^T is built straight into the arena: no second, temporary copy (~0.35 GB at 100k).
-    const pat = pa && transposeInto(a, arena);
+    const pat = pa && transposeInto(a, candidate);
     if (pa && pat) mats = [pa, pat];
   }
-  const useArena = mats !== null;
+  // An arena that could not hold both matrices is dropped, not kept alive by the closures.
+  const arena = mats ? candidate : null;
+  const useArena = arena !== null;
   const [sa, sat] = mats ?? [toShared(a), toShared(transposeCsr(a))];
   const control = new Int32Array(new SharedArrayBuffer(4));
   const worker =

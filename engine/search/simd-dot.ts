@@ -10,6 +10,7 @@
 // chains keep the adder busy while every row gets exactly the arithmetic of a
 // one-row loop (the scores are bit-identical to it). A prefix of the axes (`dims`,
 // hybrid search's first 100) reads only that part of each row.
+import { leb128 } from '../linalg/wasm-assembler';
 
 // prettier-ignore
 const DOTS_HEADER = new Uint8Array([
@@ -111,18 +112,6 @@ const DOTS_BODY = [
   op.end, // exit
   op.end, // function
 ];
-
-/** Unsigned LEB128, as WebAssembly encodes sizes. */
-function leb128(value: number): number[] {
-  const out: number[] = [];
-  do {
-    let byte = value & 0x7f;
-    value >>>= 7;
-    if (value !== 0) byte |= 0x80;
-    out.push(byte);
-  } while (value !== 0);
-  return out;
-}
 
 const CODE_CONTENT = [0x01, ...leb128(DOTS_BODY.length), ...DOTS_BODY];
 const DOTS_WASM = new Uint8Array([
