@@ -1,0 +1,110 @@
+// The keyword tokens of a text as SQLite FTS5 makes them with the documents_fts
+// tokenizer `porter unicode61 remove_diacritics 2` (SQLite FTS5 docs, section 4.3
+// "Tokenizers"), so Quarry's in-memory keyword index (keyword-index.ts) matches the
+// words FTS5 matches:
+//  - unicode61: a token is a run of characters in the Unicode categories L*, N* and
+//    Co, which may carry combining marks; everything else separates tokens. Tokens are
+//    lower-cased and, with remove_diacritics 2, stripped of diacritics.
+//  - porter: tokens of 3 to 64 bytes are Porter-stemmed (Porter 1980); shorter or
+//    longer ones pass through unchanged.
+// Checked against FTS5 itself (fts5vocab) on Cranfield in fts5-tokens.test.ts.
+// JavaScript's Unicode tables are newer than FTS5's (Unicode 6.1), so a character
+// added to Unicode since then may split tokens differently.
+import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer';
+
+const TOKEN = /[\p{L}\p{N}\p{Co}][\p{L}\p{N}\p{Co}\p{M}]*/gu;
+const ASCII_TOKEN = /^[\x21-\x7e]*$/;
+const LATIN_MARKS = /(\p{Script=Latin})\p{M}+/gu;
+const PORTER_MIN_BYTES = 3;
+const PORTER_MAX_BYTES = 64;
+
+/** A token folded as unicode61 with remove_diacritics 2 folds it. */
+function fold(token: string): string {
+  if (ASCII_TOKEN.test(token)) return token.toLowerCase();
+  // Character by character: unicode61 folds without context (Σ is σ, never final ς),
+  // and removes diacritics from Latin letters only.
+  let lower = '';
+  for (const ch of token) lower += ch.toLowerCase();
+  return lower.normalize('NFD').replace(LATIN_MARKS, '$1').normalize('NFC');
+}
+
+const utf8Length = (s: string) => Buffer.byteLength(s, 'utf8');
+
+// FTS5's Porter steps work on UTF-8 bytes, where every byte of a non-ASCII character
+// counts as a consonant. Each such character is stood in for by as many ASCII
+// consonants that no Porter rule names ("jqjq"...), stemmed, then put back.
+const STAND_IN = 'jqjq';
+
+function stemWithStandIns(token: string): string {
+  const originals: string[] = [];
+  const owner: number[] = [];
+  let spelled = '';
+  for (const ch of token) {
+    const code = ch.codePointAt(0)!;
+    const bytes = code < 0x80 ? 1 : code < 0x800 ? 2 : code < 0x10000 ? 3 : 4;
+    originals.push(ch);
+    spelled += bytes === 1 ? ch : STAND_IN.slice(0, bytes);
+    for (let b = 0; b < bytes; b++) owner.push(originals.length - 1);
+  }
+  const stemmed = PorterStemmer.stem(spelled);
+  let common = 0;
+  while (common < stemmed.length && stemmed[common] === spelled[common]) common++;
+  // Porter only rewrites an ASCII suffix, so the kept prefix ends on a character edge.
+  if (common < spelled.length && common > 0 && owner[common] === owner[common - 1]) return token;
+  let out = '';
+  for (let i = 0; i < common;) {
+    const c = owner[i];
+    out += originals[c];
+    while (i < common && owner[i] === c) i++;
+  }
+  return out + stemmed.slice(common);
+}
+
+/** The Porter stem of one folded token, or the token itself outside 3-64 bytes. */
+export function porterStem(token: string): string {
+  const bytes = token.length < PORTER_MIN_BYTES ? token.length : utf8Length(token);
+  if (bytes < PORTER_MIN_BYTES || bytes > PORTER_MAX_BYTES) return token;
+  return ASCII_TOKEN.test(token) ? PorterStemmer.stem(token) : stemWithStandIns(token);
+}
+
+/** Folded tokens before stemming, in text order (the words a query is made of). */
+export function ftsRawTokens(text: string): string[] {
+  if (!text) return [];
+  const out: string[] = [];
+  for (const m of text.matchAll(TOKEN)) {
+    const folded = fold(m[0]);
+    if (folded.length > 0) out.push(folded);
+  }
+  return out;
+}
+
+/**
+ * Calls `visit` with each indexed token (folded, stemmed) of the text in order. The
+ * caller's `stems` map caches surface form -> stem across documents: a collection
+ * repeats its words, and Porter stemming in natural is regular-expression heavy.
+ */
+export function forEachFtsToken(
+  text: string,
+  stems: Map<string, string>,
+  visit: (term: string) => void,
+): void {
+  if (!text) return;
+  TOKEN.lastIndex = 0;
+  for (let m = TOKEN.exec(text); m !== null; m = TOKEN.exec(text)) {
+    const surface = m[0];
+    let term = stems.get(surface);
+    if (term === undefined) {
+      const folded = fold(surface);
+      term = folded.length > 0 ? porterStem(folded) : '';
+      stems.set(surface, term);
+    }
+    if (term.length > 0) visit(term);
+  }
+}
+
+/** Indexed tokens of a text (folded and stemmed), in order. */
+export function ftsTokens(text: string): string[] {
+  const out: string[] = [];
+  forEachFtsToken(text, new Map(), (t) => out.push(t));
+  return out;
+}

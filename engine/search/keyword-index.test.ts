@@ -1,0 +1,185 @@
+import SQLite from 'better-sqlite3';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { cranfieldAvailable, readCranfield, type CranfieldCollection } from '../eval/cranfield';
+import { mulberry32 } from '../linalg/random';
+import { ftsRawTokens, ftsTokens } from './fts5-tokens';
+import { KEYWORD_TABLES_DDL } from './keyword';
+import { KeywordIndex, keywordQueryTerms } from './keyword-index';
+
+// Reference implementation: SQLite FTS5 itself (the bm25() auxiliary function and the
+// fts5vocab table, sqlite.org/fts5.html sections 5.1.1 and 7), over the Cranfield
+// collection (Cleverdon 1967; ../shared/data/cranfield) loaded as one FTS5 table, so
+// FTS5's collection statistics are the index's.
+const available = cranfieldAvailable();
+
+function ftsDatabase(docs: { rowid: number; title: string; body: string }[]) {
+  const db = new SQLite(':memory:');
+  for (const ddl of KEYWORD_TABLES_DDL) db.exec(ddl);
+  const insert = db.prepare(
+    'INSERT INTO document_texts (document_id, title, body) VALUES (?, ?, ?)',
+  );
+  db.transaction(() => docs.forEach((d) => insert.run(d.rowid, d.title, d.body)))();
+  db.exec(
+    "CREATE VIRTUAL TABLE temp.fts_instances USING fts5vocab(main, documents_fts, 'instance')",
+  );
+  return db;
+}
+
+describe.skipIf(!available)('KeywordIndex against SQLite FTS5 on Cranfield', () => {
+  let cranfield: CranfieldCollection;
+  let db: SQLite.Database;
+  let index: KeywordIndex;
+  const rows: { rowid: number; title: string; body: string }[] = [];
+
+  beforeAll(() => {
+    cranfield = readCranfield();
+    cranfield.docs.forEach((d, i) => rows.push({ rowid: i + 1, title: d.title, body: d.text }));
+    db = ftsDatabase(rows);
+    index = new KeywordIndex();
+    for (const r of rows) index.add(r.rowid, r.title, r.body);
+  });
+  afterAll(() => db?.close());
+
+  it('tokenises every document into the terms FTS5 indexes, with the same counts', () => {
+    const fts = new Map<number, Map<string, number>>();
+    for (const [term, doc] of db
+      .prepare('SELECT term, doc FROM temp.fts_instances')
+      .raw(true)
+      .iterate() as Iterable<[string, number]>) {
+      let counts = fts.get(doc);
+      if (!counts) fts.set(doc, (counts = new Map()));
+      counts.set(term, (counts.get(term) ?? 0) + 1);
+    }
+    let compared = 0;
+    for (const r of rows) {
+      const ours = new Map<string, number>();
+      for (const t of [...ftsTokens(r.title), ...ftsTokens(r.body)])
+        ours.set(t, (ours.get(t) ?? 0) + 1);
+      expect(Object.fromEntries(ours), `document ${r.rowid}`).toEqual(
+        Object.fromEntries(fts.get(r.rowid) ?? new Map()),
+      );
+      compared++;
+    }
+    expect(compared).toBe(1400);
+  });
+
+  it("scores all 225 queries' matches as FTS5's -bm25() does, and matches the same documents", () => {
+    const statement = db.prepare(
+      `SELECT rowid, -bm25(documents_fts) AS score FROM documents_fts
+        WHERE documents_fts MATCH ? ORDER BY bm25(documents_fts), rowid`,
+    );
+    let worst = 0;
+    for (const q of cranfield.queries) {
+      const { words, terms } = keywordQueryTerms(q.text);
+      const match = words.map((w) => `"${w}"`).join(' OR ');
+      const reference = statement.all(match) as { rowid: number; score: number }[];
+      const ours = index.search(terms, { limit: 5000 });
+      expect(ours.total, `query ${q.id}`).toBe(reference.length);
+      const refScore = new Map(reference.map((r) => [r.rowid, r.score]));
+      ours.ids.forEach((id, r) => {
+        const expected = refScore.get(id);
+        expect(expected, `query ${q.id}: document ${id} matched by FTS5`).toBeDefined();
+        worst = Math.max(worst, Math.abs(ours.scores[r] - expected!) / Math.abs(expected!));
+      });
+      // Same order wherever scores are not tied.
+      for (let r = 1; r < ours.ids.length; r++)
+        expect(ours.scores[r]).toBeLessThanOrEqual(ours.scores[r - 1]);
+      expect(ours.ids.slice(0, 10)).toEqual(reference.slice(0, 10).map((r) => r.rowid));
+    }
+    expect(worst).toBeLessThan(1e-12);
+  });
+
+  it('keeps the statistics right when documents are removed and added back', () => {
+    const copy = new KeywordIndex();
+    for (const r of rows) copy.add(r.rowid, r.title, r.body);
+    for (const r of rows.slice(0, 300)) copy.remove(r.rowid);
+    for (const r of rows.slice(0, 300)) copy.add(r.rowid, r.title, r.body);
+    expect(copy.size).toBe(1400);
+    const terms = keywordQueryTerms(cranfield.queries[0].text).terms;
+    const a = index.search(terms, { limit: 50 });
+    const b = copy.search(terms, { limit: 50 });
+    expect(b.total).toBe(a.total);
+    b.scores.forEach((s, i) => expect(s).toBeCloseTo(a.scores[i], 12));
+  });
+
+  it('a removed document no longer matches or counts, as if it was never loaded', () => {
+    const without = new KeywordIndex();
+    const trimmed = new KeywordIndex();
+    for (const r of rows) trimmed.add(r.rowid, r.title, r.body);
+    for (const r of rows.slice(0, 700)) trimmed.remove(r.rowid);
+    for (const r of rows.slice(700)) without.add(r.rowid, r.title, r.body);
+    const terms = keywordQueryTerms(cranfield.queries[5].text).terms;
+    expect(trimmed.search(terms, { limit: 100 })).toEqual(without.search(terms, { limit: 100 }));
+  });
+});
+
+describe('KeywordIndex', () => {
+  it('the limited list is the head of the full ranking, ties by document id', () => {
+    const rand = mulberry32(5);
+    const index = new KeywordIndex();
+    const vocabulary = ['alpha', 'beta', 'gamma', 'delta', 'epsilon', 'zeta'];
+    for (let d = 1; d <= 3000; d++) {
+      const words = Array.from(
+        { length: 1 + Math.floor(rand() * 6) },
+        () => vocabulary[Math.floor(rand() * vocabulary.length)],
+      );
+      index.add(d * 7, '', words.join(' '));
+    }
+    const full = index.search(['alpha', 'beta'], { limit: 1e9 });
+    for (const limit of [1, 10, 137, 1000, full.total - 1]) {
+      const head = index.search(['alpha', 'beta'], { limit });
+      expect(head.ids).toEqual(full.ids.slice(0, limit));
+      expect(head.total).toBe(full.total);
+    }
+    // Many equal scores here (short documents of the same words): ties go by id.
+    for (let r = 1; r < full.ids.length; r++)
+      if (full.scores[r] === full.scores[r - 1])
+        expect(full.ids[r]).toBeGreaterThan(full.ids[r - 1]);
+  });
+
+  it('allow restricts the list without changing scores', () => {
+    const index = new KeywordIndex();
+    index.add(1, 'wheat contract', 'the mill shipped wheat');
+    index.add(2, '', 'wheat and barley');
+    index.add(3, '', 'barley only');
+    const all = index.search(['wheat'], { limit: 10 });
+    const some = index.search(['wheat'], { limit: 10, allow: new Set([2, 3]) });
+    expect(some.ids).toEqual([2]);
+    expect(some.total).toBe(1);
+    expect(some.scores[0]).toBe(all.scores[all.ids.indexOf(2)]);
+  });
+
+  it('replacing a document replaces its words', () => {
+    const index = new KeywordIndex();
+    index.add(1, '', 'invoice overdue');
+    index.add(1, '', 'shipment delayed');
+    expect(index.size).toBe(1);
+    expect(index.search(['invoic'], { limit: 10 }).total).toBe(0);
+    expect(index.search(['shipment'], { limit: 10 }).ids).toEqual([1]);
+  });
+});
+
+describe('fts5 tokens', () => {
+  // Folding and diacritics against FTS5's unicode61 (remove_diacritics 2) on words
+  // chosen for it: accents, ligature-free Latin, Greek, digits, CJK, punctuation.
+  const SAMPLES = [
+    'Café Müller naïve résumé Ærøskøbing straße',
+    'ΣΊΣΥΦΟΣ Ελλάδα ÅNGSTRÖM Ørsted',
+    '東京 2024-11-30 v2.1 e-mail O’Brien',
+    'UPPER lower MiXeD dept_42 £100 €5 x²',
+  ];
+  it('folds as unicode61 remove_diacritics 2 and stems as porter', () => {
+    const db = ftsDatabase(SAMPLES.map((body, i) => ({ rowid: i + 1, title: '', body })));
+    const fts = db
+      .prepare('SELECT doc, term, offset FROM temp.fts_instances ORDER BY doc, offset')
+      .all() as { doc: number; term: string }[];
+    SAMPLES.forEach((text, i) =>
+      expect(ftsTokens(text), text).toEqual(fts.filter((r) => r.doc === i + 1).map((r) => r.term)),
+    );
+    db.close();
+  });
+
+  it('raw tokens are folded but not stemmed', () => {
+    expect(ftsRawTokens('Running CAFÉS')).toEqual(['running', 'cafes']);
+  });
+});

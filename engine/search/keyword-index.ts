@@ -1,0 +1,252 @@
+// An in-memory inverted index for keyword search, scored with the bm25 formula of
+// SQLite FTS5's bm25() (SQLite FTS5 docs, "The bm25() function"; Robertson & Zaragoza
+// 2009, "The probabilistic relevance framework: BM25 and beyond"):
+//
+//   score(D) = sum over query phrases p of  IDF(p) * f(p,D) * (k1 + 1)
+//                                           / (f(p,D) + k1 * (1 - b + b * |D| / avgdl))
+//   IDF(p)   = ln((N - n(p) + 0.5) / (n(p) + 0.5)), or 1e-6 where that is not positive
+//
+// with k1 = 1.2, b = 0.75, f the count of p in the document's title and body, |D| the
+// document's token count and n(p) the number of documents holding p. FTS5 computes
+// bm25 by walking every matching row's position lists, which at 100,000 documents and
+// a pasted paragraph takes 150-300 ms; summing postings here takes a few.
+//
+// The statistics (N, avgdl, n(p)) are the index's own documents: one index per
+// matter, so a matter's ranking does not depend on what other matters hold. Over one
+// collection the scores equal FTS5's (keyword-index.test.ts, Cranfield).
+import { isStopWord } from '../text/analyzer';
+import { forEachFtsToken, ftsRawTokens, porterStem } from './fts5-tokens';
+import { MAX_MATCH_TOKENS } from './keyword';
+
+const K1 = 1.2;
+const B = 0.75;
+const MIN_IDF = 1e-6;
+const TF_MAX = 0xffff;
+
+/**
+ * The query phrases of a user's text, as toFtsMatchExpression (keyword.ts) builds its
+ * OR of quoted strings: the distinct tokens, English stop words dropped unless nothing
+ * else is left, at most MAX_MATCH_TOKENS. `words` are the folded tokens (what a
+ * reference FTS5 MATCH quotes), `terms` their stems (what the index holds).
+ */
+export function keywordQueryTerms(text: string): { words: string[]; terms: string[] } {
+  const tokens = [...new Set(ftsRawTokens(text))];
+  const content = tokens.filter((t) => !isStopWord(t));
+  const words = (content.length > 0 ? content : tokens).slice(0, MAX_MATCH_TOKENS);
+  return { words, terms: words.map(porterStem) };
+}
+
+interface Postings {
+  slots: Int32Array;
+  tfs: Uint16Array;
+  length: number;
+}
+
+export interface KeywordResult {
+  /** Document ids, best first (ties by id). */
+  ids: number[];
+  /** bm25 scores, higher is better (FTS5's -bm25()). */
+  scores: number[];
+  /** Matching documents before the limit (after `allow`). */
+  total: number;
+}
+
+export class KeywordIndex {
+  private readonly termIds = new Map<string, number>();
+  private readonly postings: Postings[] = [];
+  /** tf above 65,535 (a word repeated that often in one document), by term*2^32+slot. */
+  private readonly bigTf = new Map<number, number>();
+  private docIds = new Float64Array(1024);
+  private lengths = new Int32Array(1024);
+  private alive = new Uint8Array(1024);
+  private slotOf = new Map<number, number>();
+  private nSlots = 0;
+  private nAlive = 0;
+  private totalTokens = 0;
+  private readonly stems = new Map<string, string>();
+  private readonly scratch: number[] = [];
+
+  get size(): number {
+    return this.nAlive;
+  }
+
+  has(docId: number): boolean {
+    return this.slotOf.has(docId);
+  }
+
+  /** Slots held by removed documents (the index is rebuilt when many are). */
+  get deadSlots(): number {
+    return this.nSlots - this.nAlive;
+  }
+
+  /** Adds (or replaces) a document's title and body. */
+  add(docId: number, title: string, body: string): void {
+    if (this.slotOf.has(docId)) this.remove(docId);
+    const slot = this.nSlots++;
+    if (slot >= this.docIds.length) this.growSlots();
+    this.docIds[slot] = docId;
+    this.alive[slot] = 1;
+    this.slotOf.set(docId, slot);
+    // Term counts of this document: counts keyed by term id, touched ids kept in order.
+    const counts = new Map<number, number>();
+    let length = 0;
+    const visit = (term: string) => {
+      length++;
+      let id = this.termIds.get(term);
+      if (id === undefined) {
+        id = this.postings.length;
+        this.termIds.set(term, id);
+        this.postings.push({ slots: new Int32Array(2), tfs: new Uint16Array(2), length: 0 });
+      }
+      counts.set(id, (counts.get(id) ?? 0) + 1);
+    };
+    forEachFtsToken(title, this.stems, visit);
+    forEachFtsToken(body, this.stems, visit);
+    if (this.stems.size > 500_000) this.stems.clear();
+    for (const [id, tf] of counts) {
+      const p = this.postings[id];
+      if (p.length === p.slots.length) {
+        const slots = new Int32Array(p.length * 2);
+        slots.set(p.slots);
+        const tfs = new Uint16Array(p.length * 2);
+        tfs.set(p.tfs);
+        p.slots = slots;
+        p.tfs = tfs;
+      }
+      p.slots[p.length] = slot;
+      p.tfs[p.length] = Math.min(tf, TF_MAX);
+      if (tf >= TF_MAX) this.bigTf.set(id * 2 ** 32 + slot, tf);
+      p.length++;
+    }
+    this.lengths[slot] = length;
+    this.nAlive++;
+    this.totalTokens += length;
+  }
+
+  /** Removes a document; its postings stay until a rebuild but no longer count. */
+  remove(docId: number): void {
+    const slot = this.slotOf.get(docId);
+    if (slot === undefined) return;
+    this.slotOf.delete(docId);
+    this.alive[slot] = 0;
+    this.nAlive--;
+    this.totalTokens -= this.lengths[slot];
+  }
+
+  private growSlots() {
+    const n = this.docIds.length * 2;
+    const docIds = new Float64Array(n);
+    docIds.set(this.docIds);
+    const lengths = new Int32Array(n);
+    lengths.set(this.lengths);
+    const alive = new Uint8Array(n);
+    alive.set(this.alive);
+    this.docIds = docIds;
+    this.lengths = lengths;
+    this.alive = alive;
+  }
+
+  /**
+   * bm25 over the documents holding any of `terms` (stems; each entry is one query
+   * phrase, so a repeated stem counts again, as FTS5 counts each phrase). `allow`
+   * restricts the documents (by id) without changing the statistics; `limit` caps the
+   * list returned, `total` counts every match.
+   */
+  search(terms: readonly string[], options: { limit: number; allow?: Set<number> }): KeywordResult {
+    const n = this.nAlive;
+    if (n === 0 || terms.length === 0) return { ids: [], scores: [], total: 0 };
+    const nRow = n;
+    const avgdl = this.totalTokens / nRow;
+    const scores = new Float64Array(this.nSlots);
+    const touched = new Uint8Array(this.nSlots);
+    const matched = this.scratch;
+    matched.length = 0;
+    for (const term of terms) {
+      const id = this.termIds.get(term);
+      if (id === undefined) continue;
+      const { slots, tfs, length } = this.postings[id];
+      let hits = 0;
+      for (let i = 0; i < length; i++) hits += this.alive[slots[i]];
+      if (hits === 0) continue;
+      let idf = Math.log((nRow - hits + 0.5) / (hits + 0.5));
+      if (idf <= 0) idf = MIN_IDF;
+      for (let i = 0; i < length; i++) {
+        const slot = slots[i];
+        if (this.alive[slot] === 0) continue;
+        let f = tfs[i];
+        if (f === TF_MAX) f = this.bigTf.get(id * 2 ** 32 + slot) ?? f;
+        scores[slot] +=
+          (idf * (f * (K1 + 1))) / (f + K1 * (1 - B + (B * this.lengths[slot]) / avgdl));
+        if (touched[slot] === 0) {
+          touched[slot] = 1;
+          matched.push(slot);
+        }
+      }
+    }
+    const allow = options.allow;
+    let candidates = matched;
+    if (allow) candidates = matched.filter((slot) => allow.has(this.docIds[slot]));
+    const total = candidates.length;
+    const docIds = this.docIds;
+    const top = Math.min(options.limit, total);
+    // Only the best `top` are sorted: a threshold from quickselect keeps the sort small
+    // when a common word matches most of the matter.
+    if (top < total) candidates = bestSlots(candidates, scores, docIds, top);
+    candidates.sort((a, b) => scores[b] - scores[a] || docIds[a] - docIds[b]);
+    const ids = new Array<number>(top);
+    const out = new Array<number>(top);
+    for (let r = 0; r < top; r++) {
+      ids[r] = docIds[candidates[r]];
+      out[r] = scores[candidates[r]];
+    }
+    return { ids, scores: out, total };
+  }
+}
+
+/** The k-th largest value of `values` (1-based k), rearranging `values` (Hoare's FIND). */
+function kthLargest(values: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = values.length - 1;
+  const target = k - 1;
+  while (lo < hi) {
+    const pivot = values[(lo + hi) >>> 1];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (values[i] > pivot) i++;
+      while (values[j] < pivot) j--;
+      if (i <= j) {
+        const t = values[i];
+        values[i] = values[j];
+        values[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (target <= j) hi = j;
+    else if (target >= i) lo = i;
+    else break;
+  }
+  return values[target];
+}
+
+/** The `top` best slots by score (ties at the threshold by lower document id), unsorted. */
+function bestSlots(
+  slots: number[],
+  scores: Float64Array,
+  docIds: Float64Array,
+  top: number,
+): number[] {
+  const values = new Float64Array(slots.length);
+  for (let i = 0; i < slots.length; i++) values[i] = scores[slots[i]];
+  const threshold = kthLargest(values, top);
+  const out: number[] = [];
+  const ties: number[] = [];
+  for (const slot of slots) {
+    if (scores[slot] > threshold) out.push(slot);
+    else if (scores[slot] === threshold) ties.push(slot);
+  }
+  ties.sort((a, b) => docIds[a] - docIds[b]);
+  for (let i = 0; out.length < top; i++) out.push(ties[i]);
+  return out;
+}
