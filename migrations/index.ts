@@ -5,6 +5,7 @@ import * as accountSetupTokens from './2026_12_02_0200_account_setup_tokens';
 import * as conceptInsights from './2026_12_02_0400_concept_insights';
 import * as matterIndexSettings from './2026_12_02_0500_matter_index_settings';
 import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
+import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -15,4 +16,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0400_concept_insights': conceptInsights,
   '2026_12_02_0500_matter_index_settings': matterIndexSettings,
   '2026_12_02_0600_search_filter_index': searchFilterIndex,
+  '2026_12_02_0700_keyword_changes': keywordChanges,
 };

@@ -10,6 +10,7 @@ import { IndexService } from './indexing/service';
 import { buildIndexHandler } from './jobs/build-index';
 import { extractBatchHandler } from './jobs/extract-batch';
 import { JobRunner } from './jobs/runner';
+import { KeywordIndexCache } from './search/keyword-cache';
 import { BlobStore } from './storage/blob-store';
 import { sweepStaleTempDirs } from './storage/temp-dirs';
 
@@ -34,6 +35,8 @@ export interface AppContext {
   jobs: JobRunner;
   /** Each matter's concept space: getSpace(matterId) for search; fold-in and rebuilds. */
   index: IndexService;
+  /** Each matter's in-memory keyword (bm25) index, kept in step with its texts. */
+  keyword: KeywordIndexCache;
   /** Stops services in reverse order of creation, then closes the database. */
   close(): Promise<void>;
 }
@@ -62,6 +65,8 @@ export async function createContext(config: Config): Promise<AppContext> {
     const jobs = new JobRunner(db, logger);
     index.attachJobs(jobs);
     closers.push(() => jobs.close());
+    const keyword = new KeywordIndexCache(sqlite, logger);
+    closers.push(() => keyword.close());
 
     let closed = false;
     const ctx: AppContext = {
@@ -75,6 +80,7 @@ export async function createContext(config: Config): Promise<AppContext> {
       extraction,
       jobs,
       index,
+      keyword,
       async close() {
         if (closed) return;
         closed = true;
@@ -85,6 +91,7 @@ export async function createContext(config: Config): Promise<AppContext> {
     jobs.register('build-index', buildIndexHandler(ctx));
     await index.recoverInterrupted();
     await jobs.start();
+    keyword.warmAll();
     return ctx;
   } catch (error) {
     for (const close of closers.reverse()) await close();

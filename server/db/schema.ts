@@ -121,6 +121,13 @@ export interface DocumentTextsTable {
   body: Generated<string>;
 }
 
+/** Logged by triggers (migration 2026_12_02_0700): documents whose searchable text may have changed. */
+export interface KeywordChangesTable {
+  id: Generated<number>;
+  matter_id: number;
+  document_id: number;
+}
+
 export interface DocumentsFtsTable {
   rowid: number;
   title: string;
@@ -267,6 +274,7 @@ export interface Database {
   documents: DocumentsTable;
   document_texts: DocumentTextsTable;
   documents_fts: DocumentsFtsTable;
+  keyword_changes: KeywordChangesTable;
   jobs: JobsTable;
   index_versions: IndexVersionsTable;
   index_terms: IndexTermsTable;

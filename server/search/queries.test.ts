@@ -1,14 +1,14 @@
-// The search queries that return up to a whole matter's ids, against the plain SQL
-// they replace: keyword matches aggregated into JSON arrays must be the same documents,
-// in the same order, with bit-identical bm25 scores as the ORDER BY ... LIMIT rows
-// (SQLite FTS5 bm25, read row by row); filter candidates must come from the covering
-// index. Data: Cranfield 1400 (Cleverdon, Mills & Keen 1966, ../shared/data/cranfield)
+// The search queries that return up to a whole matter's ids: the matter's in-memory
+// keyword index must match the documents SQLite FTS5 matches (its scores are checked
+// against FTS5's bm25 in engine/search/keyword-index.test.ts) and follow every change
+// to the texts; filter candidates must come from the covering index. Data: Cranfield 1400 (Cleverdon, Mills & Keen 1966, ../shared/data/cranfield)
 // and its 225 queries, loaded as one matter's documents.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cranfieldAvailable, readCranfield } from '../../engine/eval/cranfield';
-import { toFtsMatchExpression } from '../../engine/search/keyword';
+import { keywordQueryTerms } from '../../engine/search/keyword-index';
 import { createTestApp, type TestApp } from '../../tests/helpers';
-import { documentsByIds, filteredDocumentIds, keywordMatches } from './queries';
+import { replaceDocumentText } from '../documents/queries';
+import { documentsByIds, filteredDocumentIds } from './queries';
 
 const present = cranfieldAvailable();
 let t: TestApp;
@@ -64,50 +64,94 @@ beforeAll(async () => {
 });
 afterAll(() => t?.close());
 
-/** The keyword query read row by row, as the search did before the JSON aggregate. */
-function rowByRow(match: string, limit: number, custodianId?: number) {
-  const rows = t.ctx.sqlite
+/** FTS5's matches in the matter (extracted documents only), as a sorted id list. */
+function ftsMatches(match: string): number[] {
+  return t.ctx.sqlite
     .prepare(
-      `SELECT documents_fts.rowid AS id, -bm25(documents_fts) AS score
-         FROM documents_fts JOIN documents d ON d.id = documents_fts.rowid
+      `SELECT documents_fts.rowid FROM documents_fts JOIN documents d ON d.id = documents_fts.rowid
         WHERE documents_fts MATCH ? AND d.matter_id = ? AND d.extract_status = 'extracted'
-          AND (? IS NULL OR d.custodian_id = ?)
-        ORDER BY bm25(documents_fts) LIMIT ?`,
+        ORDER BY 1`,
     )
-    .raw(true)
-    .all(match, matterId, custodianId ?? null, custodianId ?? null, limit) as [number, number][];
-  return { ids: rows.map((r) => r[0]), scores: rows.map((r) => r[1]) };
+    .pluck()
+    .all(match, matterId) as number[];
+}
+
+async function keywordIds(text: string): Promise<number[]> {
+  const index = await t.ctx.keyword.indexFor(matterId);
+  const found = index.search(keywordQueryTerms(text).terms, { limit: 1e9 });
+  return [...found.ids].sort((a, b) => a - b);
 }
 
 describe.runIf(present)('search queries on Cranfield 1400', () => {
-  it('keyword matches: same ids, order and bm25 bits as row-by-row reads, all 225 queries', () => {
-    let capped = 0;
-    for (const [i, text] of queries.entries()) {
-      const match = toFtsMatchExpression(text)!;
-      const limit = i % 2 === 0 ? 10_000 : 100;
-      const got = keywordMatches(t.ctx.db, t.ctx.sqlite, matterId, match, {}, limit);
-      const want = rowByRow(match, limit);
-      expect(got.ids).toEqual(want.ids);
-      expect(got.scores.every((s, r) => Object.is(s, want.scores[r]))).toBe(true);
-      if (got.ids.length === 100) capped++;
+  it("keyword index: the same documents as FTS5 in the matter's extracted set, all 225 queries", async () => {
+    for (const text of queries) {
+      const { words } = keywordQueryTerms(text);
+      expect(await keywordIds(text)).toEqual(ftsMatches(words.map((w) => `"${w}"`).join(' OR ')));
     }
-    expect(capped).toBeGreaterThan(50); // the limit was exercised
   });
 
-  it('keyword matches honour filters like the row-by-row query', () => {
-    const match = toFtsMatchExpression(queries[0])!;
-    const got = keywordMatches(
-      t.ctx.db,
-      t.ctx.sqlite,
-      matterId,
-      match,
-      {
-        custodianIds: [custodians[1]],
-      },
-      10_000,
+  it('keyword index follows status changes, replaced and deleted texts, and new documents', async () => {
+    const sqlite = t.ctx.sqlite;
+    const first = await keywordIds('boundary layer');
+    const [a, b, c] = first;
+    sqlite.prepare("UPDATE documents SET extract_status = 'pending' WHERE id = ?").run(a);
+    await replaceDocumentText(t.ctx.db, b, 'zanzibar quokka', 'nothing about fluids');
+    sqlite.prepare('DELETE FROM document_texts WHERE document_id = ?').run(c);
+    sqlite.prepare('DELETE FROM documents WHERE id = ?').run(c);
+    expect(await keywordIds('boundary layer')).toEqual(
+      first.filter((id) => ![a, b, c].includes(id)),
     );
-    expect(got.ids.length).toBeGreaterThan(0);
-    expect(got).toEqual(rowByRow(match, 10_000, custodians[1]));
+    expect(await keywordIds('quokka')).toEqual([b]);
+    sqlite.prepare("UPDATE documents SET extract_status = 'extracted' WHERE id = ?").run(a);
+    const added = Number(
+      sqlite
+        .prepare(
+          `INSERT INTO documents (matter_id, control_number, original_name, sha256, doc_type, size, title, extract_status, created_at)
+           VALUES (?, 'CRAN-NEW', 'new.txt', ?, 'text', 1, 'quokka', 'extracted', ?)`,
+        )
+        .run(matterId, 'f'.repeat(64), new Date().toISOString()).lastInsertRowid,
+    );
+    sqlite
+      .prepare('INSERT INTO document_texts (document_id, title, body) VALUES (?, ?, ?)')
+      .run(added, 'quokka', 'a quokka boundary');
+    expect(await keywordIds('quokka')).toEqual([b, added].sort((x, y) => x - y));
+    expect(await keywordIds('boundary layer')).toContain(a);
+    // The applied log is pruned.
+    expect(
+      sqlite
+        .prepare('SELECT count(*) FROM keyword_changes WHERE matter_id = ?')
+        .pluck()
+        .get(matterId),
+    ).toBe(0);
+  });
+
+  it("a matter's keyword scores do not depend on another matter's documents", async () => {
+    const before = (await t.ctx.keyword.indexFor(matterId)).search(
+      keywordQueryTerms(queries[3]).terms,
+      { limit: 50 },
+    );
+    const other = await t.buildMatter();
+    const sqlite = t.ctx.sqlite;
+    for (let i = 0; i < 30; i++) {
+      const id = Number(
+        sqlite
+          .prepare(
+            `INSERT INTO documents (matter_id, control_number, original_name, sha256, doc_type, size, title, extract_status, created_at)
+             VALUES (?, ?, 'x.txt', ?, 'text', 1, '', 'extracted', ?)`,
+          )
+          .run(other.id, `OTHER-${i}`, String(i).padStart(64, 'e'), new Date().toISOString())
+          .lastInsertRowid,
+      );
+      sqlite
+        .prepare('INSERT INTO document_texts (document_id, title, body) VALUES (?, ?, ?)')
+        .run(id, '', queries[3]);
+    }
+    const after = (await t.ctx.keyword.indexFor(matterId)).search(
+      keywordQueryTerms(queries[3]).terms,
+      { limit: 50 },
+    );
+    expect(after).toEqual(before);
+    expect((await t.ctx.keyword.indexFor(other.id)).size).toBe(30);
   });
 
   it("listing fields by id: only the matter's documents, in any matter of the database", async () => {
@@ -115,13 +159,6 @@ describe.runIf(present)('search queries on Cranfield 1400', () => {
     const rows = await documentsByIds(t.ctx.db, matterId, ids);
     expect(rows.map((r) => r.id).sort((a, b) => a - b)).toEqual([...ids].sort((a, b) => a - b));
     expect(await documentsByIds(t.ctx.db, matterId + 1000, ids)).toEqual([]);
-  });
-
-  it('a match with nothing found gives empty arrays', () => {
-    expect(keywordMatches(t.ctx.db, t.ctx.sqlite, matterId, '"zzyzxnotaword"', {}, 10)).toEqual({
-      ids: [],
-      scores: [],
-    });
   });
 
   it('filter candidates: the extracted documents passing the filters, from the covering index', () => {

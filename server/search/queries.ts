@@ -12,11 +12,11 @@ import type { Database } from '../db/schema';
 
 type Executor = Kysely<Database> | Transaction<Database>;
 
-// Queries are written in Kysely; the two that return up to a whole matter's ids
-// (filter candidates, keyword matches) are compiled by Kysely and run on the raw
-// better-sqlite3 handle without building a JavaScript row per document (measured on
-// 100,000 documents: about 0.85 us per row as arrays, 0.23 us plucked): filter ids are
-// plucked, keyword matches come back as two JSON arrays built by SQLite.
+// Queries are written in Kysely; the one that returns up to a whole matter's ids
+// (filter candidates) is compiled by Kysely and run on the raw better-sqlite3 handle,
+// plucked, without building a JavaScript row per document (measured on 100,000
+// documents: about 0.85 us per row as arrays, 0.23 us plucked). Keyword matches come
+// from the in-memory index (keyword-cache.ts).
 
 const statementCache = new WeakMap<SQLite.Database, Map<string, SQLite.Statement>>();
 
@@ -37,24 +37,6 @@ function pluckedIds(sqlite: SQLite.Database, query: Compilable): number[] {
   return prepared(sqlite, compiled.sql)
     .pluck(true)
     .all(...(compiled.parameters as unknown[])) as number[];
-}
-
-/**
- * The (id, score) rows of `query`, in its order, as two JSON arrays aggregated by
- * SQLite. The query must end in ORDER BY ... LIMIT: a subquery with a LIMIT is not
- * flattened (SQLite query optimizer, flattening rules), so the aggregate reads its
- * rows in that order; SQLite writes REAL values with 17 significant digits, which
- * JSON.parse turns back into the same doubles.
- */
-function idScorePairs(sqlite: SQLite.Database, query: Compilable) {
-  const compiled = query.compile();
-  const [ids, scores] = prepared(
-    sqlite,
-    `SELECT json_group_array(id), json_group_array(score) FROM (${compiled.sql})`,
-  )
-    .raw(true)
-    .get(...(compiled.parameters as unknown[])) as [string, string];
-  return { ids: JSON.parse(ids) as number[], scores: JSON.parse(scores) as number[] };
 }
 
 /** True when the filters restrict which documents may match (includeDuplicates does not). */
@@ -121,32 +103,6 @@ export function filteredDocumentIds(
     .where('d.extract_status', '=', 'extracted')
     .where(filterCondition(filters));
   return pluckedIds(sqlite, query);
-}
-
-/**
- * FTS5 bm25 keyword matches in the matter that pass the filters, best first, as
- * [documentId, score] with score = -bm25 (higher is better). `match` must come from
- * toFtsMatchExpression (engine/search/keyword.ts): user text never reaches FTS5 as syntax.
- */
-export function keywordMatches(
-  db: Executor,
-  sqlite: SQLite.Database,
-  matterId: number,
-  match: string,
-  filters: SearchFilters,
-  limit: number,
-): { ids: number[]; scores: number[] } {
-  const query = db
-    .selectFrom('documents_fts')
-    .innerJoin('documents as d', 'd.id', 'documents_fts.rowid')
-    .select(['documents_fts.rowid as id', sql<number>`-bm25(documents_fts)`.as('score')])
-    .where(sql<SqlBool>`documents_fts MATCH ${match}`)
-    .where('d.matter_id', '=', matterId)
-    .where('d.extract_status', '=', 'extracted')
-    .where(filterCondition(filters))
-    .orderBy(sql`bm25(documents_fts)`)
-    .limit(limit);
-  return idScorePairs(sqlite, query);
 }
 
 /** Duplicates (same SHA-256, status 'duplicate') of the given first copies, passing the filters. */

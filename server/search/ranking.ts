@@ -4,8 +4,9 @@
 //  concept  - cosine in the matter's concept space (engine/search/top-n.ts over the
 //             space's rows, candidates masked by the filters); documents at or above
 //             CONCEPT_MIN_COSINE are hits.
-//  keyword  - SQLite FTS5 bm25 over documents_fts, filters in SQL; every document
-//             matching a query term is a hit.
+//  keyword  - bm25 as SQLite FTS5 computes it, over the matter's in-memory keyword
+//             index (engine/search/keyword-index.ts, server/search/keyword-cache.ts);
+//             every document holding a query term is a hit.
 //  hybrid   - both lists fused (engine/search/fusion.ts: per-query min-max, then
 //             0.3 keyword + 0.7 concept on the first 100 concept axes, the defaults
 //             tuned on Cranfield, docs/RETRIEVAL.md).
@@ -14,20 +15,14 @@
 import type { ConceptSpace } from '../../engine/index/concept-space';
 import { nearestTerms } from '../../engine/search/explain';
 import { fuseScores, type Scored } from '../../engine/search/fusion';
-import { toFtsMatchExpression } from '../../engine/search/keyword';
+import { keywordQueryTerms } from '../../engine/search/keyword-index';
 import { DEFAULT_HYBRID } from '../../engine/search/search';
 import { topCosine } from '../../engine/search/top-n';
 import { analyze } from '../../engine/text/analyzer';
 import type { SearchFilters, SearchMode, SimilarTo } from '../../shared/schemas/search';
 import type { AppContext } from '../context';
 import { conflict, notFound } from '../http/errors';
-import {
-  duplicatesOf,
-  filteredDocumentIds,
-  findSearchableDocument,
-  keywordMatches,
-  restricts,
-} from './queries';
+import { duplicatesOf, filteredDocumentIds, findSearchableDocument, restricts } from './queries';
 
 /**
  * Concept hits need at least this cosine. Below it a document shares little with the
@@ -216,10 +211,14 @@ export async function rankResultSet(
 
   let keyword: Scored<number>[] = [];
   if (mode !== 'concept') {
-    const match = toFtsMatchExpression(input.query ?? '');
-    if (match === null) notices.push('The query has no searchable word.');
+    const { terms } = keywordQueryTerms(input.query ?? '');
+    if (terms.length === 0) notices.push('The query has no searchable word.');
     else {
-      const found = keywordMatches(ctx.db, ctx.sqlite, matterId, match, filters, cap);
+      const index = await ctx.keyword.indexFor(matterId);
+      const found = index.search(terms, {
+        limit: cap,
+        allow: allowIds ? new Set(allowIds) : undefined,
+      });
       keyword = found.ids.map((id, i) => ({ id, score: found.scores[i] }));
     }
   }
