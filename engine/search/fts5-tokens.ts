@@ -12,7 +12,6 @@
 // added to Unicode since then may split tokens differently.
 import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer';
 
-const TOKEN = /[\p{L}\p{N}\p{Co}][\p{L}\p{N}\p{Co}\p{M}]*/gu;
 const ASCII_TOKEN = /^[\x21-\x7e]*$/;
 const LATIN_MARKS = /(\p{Script=Latin})\p{M}+/gu;
 const PORTER_MIN_BYTES = 3;
@@ -67,44 +66,92 @@ export function porterStem(token: string): string {
   return ASCII_TOKEN.test(token) ? PorterStemmer.stem(token) : stemWithStandIns(token);
 }
 
-/** Folded tokens before stemming, in text order (the words a query is made of). */
-export function ftsRawTokens(text: string): string[] {
-  if (!text) return [];
-  const out: string[] = [];
-  for (const m of text.matchAll(TOKEN)) {
-    const folded = fold(m[0]);
-    if (folded.length > 0) out.push(folded);
+// Character classes: ASCII from a table; other code points tested once with the
+// Unicode property regexps and remembered (1 token character, 2 combining mark, 3 separator).
+const ASCII_ALNUM = new Uint8Array(128);
+for (let c = 0; c < 128; c++) ASCII_ALNUM[c] = /[0-9A-Za-z]/.test(String.fromCharCode(c)) ? 1 : 0;
+const TOKEN_CHAR = /^[\p{L}\p{N}\p{Co}]$/u;
+const MARK_CHAR = /^\p{M}$/u;
+const bmpClass = new Uint8Array(0x10000);
+const astralClass = new Map<number, number>();
+
+function classOf(cp: number): number {
+  let k = cp < 0x10000 ? bmpClass[cp] : (astralClass.get(cp) ?? 0);
+  if (k === 0) {
+    const ch = String.fromCodePoint(cp);
+    k = TOKEN_CHAR.test(ch) ? 1 : MARK_CHAR.test(ch) ? 2 : 3;
+    if (cp < 0x10000) bmpClass[cp] = k;
+    else astralClass.set(cp, k);
   }
-  return out;
+  return k;
 }
 
 /**
- * Calls `visit` with each indexed token (folded, stemmed) of the text in order. The
- * caller's `stems` map caches surface form -> stem across documents: a collection
- * repeats its words, and Porter stemming in natural is regular-expression heavy.
+ * Calls `visit` with each token's surface form (the text as written) in order: a run
+ * that starts with a letter, digit or private-use character and goes on through those
+ * and combining marks.
  */
-export function forEachFtsToken(
-  text: string,
-  stems: Map<string, string>,
-  visit: (term: string) => void,
-): void {
-  if (!text) return;
-  TOKEN.lastIndex = 0;
-  for (let m = TOKEN.exec(text); m !== null; m = TOKEN.exec(text)) {
-    const surface = m[0];
-    let term = stems.get(surface);
-    if (term === undefined) {
-      const folded = fold(surface);
-      term = folded.length > 0 ? porterStem(folded) : '';
-      stems.set(surface, term);
+export function forEachFtsSurface(text: string, visit: (surface: string) => void): void {
+  forEachFtsSpan(text, (start, end) => visit(text.slice(start, end)));
+}
+
+/** As forEachFtsSurface, with each token's [start, end) in the text instead of a copy. */
+export function forEachFtsSpan(text: string, visit: (start: number, end: number) => void): void {
+  const n = text.length;
+  let i = 0;
+  while (i < n) {
+    let c = text.charCodeAt(i);
+    if (c < 128) {
+      if (ASCII_ALNUM[c] === 0) {
+        i++;
+        continue;
+      }
+    } else {
+      const cp = text.codePointAt(i)!;
+      if (classOf(cp) !== 1) {
+        i += cp > 0xffff ? 2 : 1;
+        continue;
+      }
     }
-    if (term.length > 0) visit(term);
+    const start = i;
+    for (;;) {
+      if (i >= n) break;
+      c = text.charCodeAt(i);
+      if (c < 128) {
+        if (ASCII_ALNUM[c] === 0) break;
+        i++;
+      } else {
+        const cp = text.codePointAt(i)!;
+        if (classOf(cp) === 3) break;
+        i += cp > 0xffff ? 2 : 1;
+      }
+    }
+    visit(start, i);
   }
+}
+
+/** The indexed term of one surface form (folded, stemmed); '' when folding leaves nothing. */
+export function ftsTerm(surface: string): string {
+  const folded = fold(surface);
+  return folded.length > 0 ? porterStem(folded) : '';
+}
+
+/** Folded tokens before stemming, in text order (the words a query is made of). */
+export function ftsRawTokens(text: string): string[] {
+  const out: string[] = [];
+  forEachFtsSurface(text, (surface) => {
+    const folded = fold(surface);
+    if (folded.length > 0) out.push(folded);
+  });
+  return out;
 }
 
 /** Indexed tokens of a text (folded and stemmed), in order. */
 export function ftsTokens(text: string): string[] {
   const out: string[] = [];
-  forEachFtsToken(text, new Map(), (t) => out.push(t));
+  forEachFtsSurface(text, (surface) => {
+    const term = ftsTerm(surface);
+    if (term.length > 0) out.push(term);
+  });
   return out;
 }

@@ -137,6 +137,29 @@ describe('KeywordIndex', () => {
         expect(full.ids[r]).toBeGreaterThan(full.ids[r - 1]);
   });
 
+  it('compacting the postings changes no result, with documents added after it', () => {
+    const rand = mulberry32(9);
+    const vocabulary = ['wheat', 'barley', 'mill', 'invoice', 'contract', 'shipment', 'delay'];
+    const docs = Array.from({ length: 700 }, () =>
+      Array.from(
+        { length: 1 + Math.floor(rand() * 9) },
+        () => vocabulary[Math.floor(rand() * vocabulary.length)],
+      ).join(' '),
+    );
+    const plain = new KeywordIndex();
+    const packed = new KeywordIndex();
+    docs.forEach((body, i) => plain.add(i + 1, '', body));
+    docs.slice(0, 500).forEach((body, i) => packed.add(i + 1, '', body));
+    packed.compact();
+    expect(packed.uncompacted).toBe(0);
+    docs.slice(500).forEach((body, i) => packed.add(i + 501, '', body));
+    expect(packed.uncompacted).toBeGreaterThan(0);
+    const query = ['wheat', 'mill', 'delay'];
+    expect(packed.search(query, { limit: 1e9 })).toEqual(plain.search(query, { limit: 1e9 }));
+    packed.compact();
+    expect(packed.search(query, { limit: 1e9 })).toEqual(plain.search(query, { limit: 1e9 }));
+  });
+
   it('allow restricts the list without changing scores', () => {
     const index = new KeywordIndex();
     index.add(1, 'wheat contract', 'the mill shipped wheat');

@@ -15,13 +15,14 @@
 // matter, so a matter's ranking does not depend on what other matters hold. Over one
 // collection the scores equal FTS5's (keyword-index.test.ts, Cranfield).
 import { isStopWord } from '../text/analyzer';
-import { forEachFtsToken, ftsRawTokens, porterStem } from './fts5-tokens';
+import { forEachFtsSurface, ftsRawTokens, ftsTerm, porterStem } from './fts5-tokens';
 import { MAX_MATCH_TOKENS } from './keyword';
 
 const K1 = 1.2;
 const B = 0.75;
 const MIN_IDF = 1e-6;
 const TF_MAX = 0xffff;
+const SURFACE_CACHE_LIMIT = 1_000_000;
 
 /**
  * The query phrases of a user's text, as toFtsMatchExpression (keyword.ts) builds its
@@ -36,11 +37,18 @@ export function keywordQueryTerms(text: string): { words: string[]; terms: strin
   return { words, terms: words.map(porterStem) };
 }
 
+// A term's postings: a compact typed part, plus a tail of plain arrays that new
+// documents are appended to (allocating typed arrays one growth at a time costs more
+// than the indexing itself); compact() moves tails into the typed part.
 interface Postings {
   slots: Int32Array;
   tfs: Uint16Array;
-  length: number;
+  tailSlots: number[];
+  tailTfs: number[];
 }
+
+const EMPTY_SLOTS = new Int32Array(0);
+const EMPTY_TFS = new Uint16Array(0);
 
 export interface KeywordResult {
   /** Document ids, best first (ties by id). */
@@ -63,8 +71,51 @@ export class KeywordIndex {
   private nSlots = 0;
   private nAlive = 0;
   private totalTokens = 0;
-  private readonly stems = new Map<string, string>();
+  /** Surface form -> term id (-1: no term), so each spelling is folded and stemmed once. */
+  private readonly surfaceIds = new Map<string, number>();
+  private counts = new Int32Array(1024);
+  private readonly touched: number[] = [];
   private readonly scratch: number[] = [];
+  private tailLength = 0;
+
+  /** Postings appended since the last compact(). */
+  get uncompacted(): number {
+    return this.tailLength;
+  }
+
+  /** Moves every term's appended postings into its typed arrays (after a bulk load). */
+  compact(): void {
+    for (const p of this.postings) {
+      if (p.tailSlots.length === 0) continue;
+      const n = p.slots.length;
+      const slots = new Int32Array(n + p.tailSlots.length);
+      slots.set(p.slots);
+      slots.set(p.tailSlots, n);
+      const tfs = new Uint16Array(n + p.tailTfs.length);
+      tfs.set(p.tfs);
+      tfs.set(p.tailTfs, n);
+      p.slots = slots;
+      p.tfs = tfs;
+      p.tailSlots = [];
+      p.tailTfs = [];
+    }
+    this.tailLength = 0;
+  }
+
+  private termIdOf(term: string): number {
+    let id = this.termIds.get(term);
+    if (id === undefined) {
+      id = this.postings.length;
+      this.termIds.set(term, id);
+      this.postings.push({ slots: EMPTY_SLOTS, tfs: EMPTY_TFS, tailSlots: [], tailTfs: [] });
+      if (id >= this.counts.length) {
+        const counts = new Int32Array(this.counts.length * 2);
+        counts.set(this.counts);
+        this.counts = counts;
+      }
+    }
+    return id;
+  }
 
   get size(): number {
     return this.nAlive;
@@ -87,36 +138,33 @@ export class KeywordIndex {
     this.docIds[slot] = docId;
     this.alive[slot] = 1;
     this.slotOf.set(docId, slot);
-    // Term counts of this document: counts keyed by term id, touched ids kept in order.
-    const counts = new Map<number, number>();
+    // Term counts of this document in a scratch array by term id, touched ids in order.
+    const touched = this.touched;
+    touched.length = 0;
     let length = 0;
-    const visit = (term: string) => {
-      length++;
-      let id = this.termIds.get(term);
+    const surfaces = this.surfaceIds;
+    const visit = (surface: string) => {
+      let id = surfaces.get(surface);
       if (id === undefined) {
-        id = this.postings.length;
-        this.termIds.set(term, id);
-        this.postings.push({ slots: new Int32Array(2), tfs: new Uint16Array(2), length: 0 });
+        const term = ftsTerm(surface);
+        id = term.length === 0 ? -1 : this.termIdOf(term);
+        if (surfaces.size >= SURFACE_CACHE_LIMIT) surfaces.clear();
+        surfaces.set(surface, id);
       }
-      counts.set(id, (counts.get(id) ?? 0) + 1);
+      if (id < 0) return;
+      length++;
+      if (this.counts[id]++ === 0) touched.push(id);
     };
-    forEachFtsToken(title, this.stems, visit);
-    forEachFtsToken(body, this.stems, visit);
-    if (this.stems.size > 500_000) this.stems.clear();
-    for (const [id, tf] of counts) {
+    forEachFtsSurface(title, visit);
+    forEachFtsSurface(body, visit);
+    for (const id of touched) {
+      const tf = this.counts[id];
+      this.counts[id] = 0;
       const p = this.postings[id];
-      if (p.length === p.slots.length) {
-        const slots = new Int32Array(p.length * 2);
-        slots.set(p.slots);
-        const tfs = new Uint16Array(p.length * 2);
-        tfs.set(p.tfs);
-        p.slots = slots;
-        p.tfs = tfs;
-      }
-      p.slots[p.length] = slot;
-      p.tfs[p.length] = Math.min(tf, TF_MAX);
+      p.tailSlots.push(slot);
+      p.tailTfs.push(Math.min(tf, TF_MAX));
       if (tf >= TF_MAX) this.bigTf.set(id * 2 ** 32 + slot, tf);
-      p.length++;
+      this.tailLength++;
     }
     this.lengths[slot] = length;
     this.nAlive++;
@@ -164,24 +212,25 @@ export class KeywordIndex {
     for (const term of terms) {
       const id = this.termIds.get(term);
       if (id === undefined) continue;
-      const { slots, tfs, length } = this.postings[id];
+      const p = this.postings[id];
       let hits = 0;
-      for (let i = 0; i < length; i++) hits += this.alive[slots[i]];
+      for (let i = 0; i < p.slots.length; i++) hits += this.alive[p.slots[i]];
+      for (let i = 0; i < p.tailSlots.length; i++) hits += this.alive[p.tailSlots[i]];
       if (hits === 0) continue;
       let idf = Math.log((nRow - hits + 0.5) / (hits + 0.5));
       if (idf <= 0) idf = MIN_IDF;
-      for (let i = 0; i < length; i++) {
-        const slot = slots[i];
-        if (this.alive[slot] === 0) continue;
-        let f = tfs[i];
-        if (f === TF_MAX) f = this.bigTf.get(id * 2 ** 32 + slot) ?? f;
+      const score = (slot: number, stored: number) => {
+        if (this.alive[slot] === 0) return;
+        const f = stored === TF_MAX ? (this.bigTf.get(id * 2 ** 32 + slot) ?? stored) : stored;
         scores[slot] +=
           (idf * (f * (K1 + 1))) / (f + K1 * (1 - B + (B * this.lengths[slot]) / avgdl));
         if (touched[slot] === 0) {
           touched[slot] = 1;
           matched.push(slot);
         }
-      }
+      };
+      for (let i = 0; i < p.slots.length; i++) score(p.slots[i], p.tfs[i]);
+      for (let i = 0; i < p.tailSlots.length; i++) score(p.tailSlots[i], p.tailTfs[i]);
     }
     const allow = options.allow;
     let candidates = matched;

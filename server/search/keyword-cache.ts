@@ -11,6 +11,8 @@ const BUILD_BATCH = 2000;
 const APPLY_BATCH = 500;
 /** Rebuild once this share of the index's slots belongs to removed or replaced documents. */
 const DEAD_SHARE = 0.25;
+/** Postings appended to plain-array tails before they are packed into typed arrays. */
+const COMPACT_AFTER = 200_000;
 
 interface Entry {
   index: KeywordIndex;
@@ -92,6 +94,7 @@ export class KeywordIndexCache {
         // Let other requests in between batches.
         await new Promise((resolve) => setImmediate(resolve));
       }
+      index.compact();
       const entry: Entry = { index, seen };
       this.catchUp(matterId, entry);
       this.entries.set(matterId, entry);
@@ -141,6 +144,7 @@ export class KeywordIndexCache {
         else entry.index.remove(id);
       }
     }
+    if (entry.index.uncompacted > COMPACT_AFTER) entry.index.compact();
     entry.seen = latest;
     // Applied: the log need not keep them (one server process serves a database), unless
     // a build in progress has yet to replay them.
