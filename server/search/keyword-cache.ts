@@ -108,13 +108,14 @@ export class KeywordIndexCache {
     return pending;
   }
 
+  private lastChangeStatement?: SQLite.Statement;
+
+  /** The newest logged change of the matter (asked before every search: prepared once). */
   private lastChange(matterId: number): number {
-    return (
-      (this.sqlite
-        .prepare('SELECT max(id) FROM keyword_changes WHERE matter_id = ?')
-        .pluck()
-        .get(matterId) as number | null) ?? 0
-    );
+    this.lastChangeStatement ??= this.sqlite
+      .prepare('SELECT max(id) FROM keyword_changes WHERE matter_id = ?')
+      .pluck();
+    return (this.lastChangeStatement.get(matterId) as number | null) ?? 0;
   }
 
   /** Applies the logged changes after entry.seen: each document is re-read as it is now. */
