@@ -7,7 +7,7 @@
 //    lower-cased and, with remove_diacritics 2, stripped of diacritics.
 //  - porter: tokens of 3 to 64 bytes are Porter-stemmed (Porter 1980); shorter or
 //    longer ones pass through unchanged.
-// Checked against FTS5 itself (fts5vocab) on Cranfield in fts5-tokens.test.ts.
+// Checked against FTS5 itself (fts5vocab) on Cranfield in keyword-index.test.ts.
 // JavaScript's Unicode tables are newer than FTS5's (Unicode 6.1), so a character
 // added to Unicode since then may split tokens differently.
 import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer';
@@ -92,11 +92,6 @@ function classOf(cp: number): number {
  * and combining marks.
  */
 export function forEachFtsSurface(text: string, visit: (surface: string) => void): void {
-  forEachFtsSpan(text, (start, end) => visit(text.slice(start, end)));
-}
-
-/** As forEachFtsSurface, with each token's [start, end) in the text instead of a copy. */
-export function forEachFtsSpan(text: string, visit: (start: number, end: number) => void): void {
   const n = text.length;
   let i = 0;
   while (i < n) {
@@ -126,7 +121,7 @@ export function forEachFtsSpan(text: string, visit: (start: number, end: number)
         i += cp > 0xffff ? 2 : 1;
       }
     }
-    visit(start, i);
+    visit(text.slice(start, i));
   }
 }
 

@@ -121,10 +121,6 @@ export class KeywordIndex {
     return this.nAlive;
   }
 
-  has(docId: number): boolean {
-    return this.slotOf.has(docId);
-  }
-
   /** Slots held by removed documents (the index is rebuilt when many are). */
   get deadSlots(): number {
     return this.nSlots - this.nAlive;
@@ -201,9 +197,8 @@ export class KeywordIndex {
    * list returned, `total` counts every match.
    */
   search(terms: readonly string[], options: { limit: number; allow?: Set<number> }): KeywordResult {
-    const n = this.nAlive;
-    if (n === 0 || terms.length === 0) return { ids: [], scores: [], total: 0 };
-    const nRow = n;
+    const nRow = this.nAlive;
+    if (nRow === 0 || terms.length === 0) return { ids: [], scores: [], total: 0 };
     const avgdl = this.totalTokens / nRow;
     const scores = new Float64Array(this.nSlots);
     const touched = new Uint8Array(this.nSlots);
