@@ -6,6 +6,7 @@ import * as conceptInsights from './2026_12_02_0400_concept_insights';
 import * as matterIndexSettings from './2026_12_02_0500_matter_index_settings';
 import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 import * as keywordChanges from './2026_12_02_0700_keyword_changes';
+import * as documentFamilies from './2026_12_04_0100_document_families';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -17,4 +18,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0500_matter_index_settings': matterIndexSettings,
   '2026_12_02_0600_search_filter_index': searchFilterIndex,
   '2026_12_02_0700_keyword_changes': keywordChanges,
+  '2026_12_04_0100_document_families': documentFamilies,
 };

@@ -4,7 +4,7 @@ import type {
   IndexDocsTable,
   IndexTermsTable,
   IndexVersionsTable as EngineIndexVersionsTable,
-} from '../../engine/index/persist';
+} from '../engine/index';
 
 // Table types for Kysely. Rows of these types never leave the server: each
 // feature's service maps them to the API types in shared/schemas.
@@ -97,6 +97,8 @@ export interface DocumentsTable {
   batch_id: number | null;
   custodian_id: number | null;
   parent_id: number | null;
+  /** The top-level document of this one's family (its own id when top-level); set by a trigger. */
+  family_id: Generated<number | null>;
   control_number: string;
   original_name: string;
   original_path: Generated<string>;
@@ -156,7 +158,7 @@ export interface JobsTable {
 
 export type IndexStatus = 'building' | 'ready' | 'failed' | 'superseded';
 
-// The index tables' shapes are the engine's (engine/index/persist.ts reads and writes
+// The index tables' shapes are the engine's (server/engine/index/persist.ts reads and writes
 // them); the server only narrows the status to its known values.
 export interface IndexVersionsTable extends Omit<EngineIndexVersionsTable, 'status'> {
   status: IndexStatus;

@@ -5,7 +5,7 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { search } from '../../engine/search/search';
+import { search } from '../engine/index';
 import { makeDocx, makeEml, makePdf, makeText, makeZip } from '../../corpus-demo/render';
 import type { UploadBatchResponse } from '../../shared/schemas/documents';
 import type { IndexStateResponse } from '../../shared/schemas/indexing';
@@ -173,6 +173,18 @@ describe('upload to searchable', () => {
       'TST-000006',
     ]);
     expect(docs[5].parentId).toBe(batch.files[4].id);
+    // Families (migration 2026_12_04_0100): the attachment belongs to its e-mail's family,
+    // every top-level file is a family of its own.
+    const families = await t.ctx.db
+      .selectFrom('documents')
+      .select(['id', 'family_id'])
+      .where('matter_id', '=', matter.id)
+      .orderBy('id')
+      .execute();
+    expect(families.map((f) => f.family_id)).toEqual([
+      ...batch.files.map((f) => f.id),
+      batch.files[4].id,
+    ]);
     expect(docs.every((d) => d.status === 'extracted')).toBe(true);
     expect(docs.every((d) => d.indexState === 'indexed')).toBe(true);
     expect(docs[0].author).toBe('Ann Miller');
