@@ -4,14 +4,22 @@ import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
 
 // Dependencies run one way: src/ and server/ may import shared/ and (server only)
-// engine/; shared/ and engine/ import neither; the client never imports the server.
+// server/engine/ through its one door, server/engine/index.ts; shared/ and the engine
+// import neither; the client never imports the server.
 const noImport = (patterns, message) => ({
   'no-restricted-imports': ['error', { patterns: [{ group: patterns, message }] }],
 });
 
 export default tseslint.config(
   {
-    ignores: ['node_modules/', 'dist/', 'data/', 'coverage/', 'bench/out/', 'corpus-demo/out/'],
+    ignores: [
+      'node_modules/',
+      'dist/',
+      'data/',
+      'coverage/',
+      'scripts/bench/out/',
+      'corpus-demo/out/',
+    ],
   },
   js.configs.recommended,
   ...tseslint.configs.recommended,
@@ -24,6 +32,15 @@ export default tseslint.config(
       ],
       '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
     },
+  },
+  // Later blocks replace this rule for src/, shared/, migrations/ and the engine itself.
+  {
+    files: ['**/*.{ts,tsx,mjs}'],
+    ignores: ['server/engine/**'],
+    rules: noImport(
+      ['**/engine/*', '!**/engine/index'],
+      'Import the concept engine through its one door, server/engine/index.ts.',
+    ),
   },
   {
     files: ['src/**/*.{ts,tsx}'],
@@ -45,13 +62,19 @@ export default tseslint.config(
       'shared/ is imported by both sides and imports neither.',
     ),
   },
-  {
-    files: ['engine/**/*.ts'],
+  // The engine is a library: it reaches nothing outside its own folder.
+  ...[
+    ['server/engine/*.ts', '../*'],
+    ['server/engine/*/*.ts', '../../*'],
+    ['server/engine/*/*/*.ts', '../../../*'],
+  ].map(([files, outside]) => ({
+    files: [files],
+    ignores: ['**/*.test.ts'],
     rules: noImport(
-      ['**/server/**', '**/src/**', 'express'],
-      'The concept engine is independent of the web server.',
+      [outside, '**/src/**', '**/shared/**', 'express'],
+      'The concept engine is a library independent of the web server.',
     ),
-  },
+  })),
   {
     files: ['migrations/**/*.ts'],
     rules: noImport(

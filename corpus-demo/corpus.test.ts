@@ -13,9 +13,9 @@ import { simpleParser } from 'mailparser';
 import mammoth from 'mammoth';
 import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ConceptSpace } from '../engine/index/concept-space';
-import { conceptRanking } from '../engine/search/search';
-import { analyze } from '../engine/text/analyzer';
+import { ConceptSpace } from '../server/engine/index';
+import { conceptRanking } from '../server/engine/index';
+import { analyze } from '../server/engine/index';
 import {
   generateDemoCorpus,
   planDemoCorpus,

@@ -5,7 +5,7 @@
 // energy), and drift recomputed here from U_k with its definition 1 - ||U_k^T d||^2/||d||^2.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeText } from '../../corpus-demo/render';
-import { analyze } from '../../engine/text/analyzer';
+import { analyze } from '../engine/index';
 import type {
   DimensionsResponse,
   GroupingResponse,

@@ -1,24 +1,20 @@
 // The concept-space views of a matter (issue 6): spectrum, dimensions and their labels,
 // term neighbours, the document map, k-means groupings and index health. Everything
 // reads the matter's serving index version through the index service (ctx.index), which
-// holds its ConceptSpace in memory; the numerics are in engine/insights.
+// holds its ConceptSpace in memory; the numerics are in server/engine/insights.
 //
 // Concept search and these views assist attorney review; they do not decide relevance
 // or privilege.
-import type { ConceptSpace } from '../../engine/index/concept-space';
-import { decodeSingularValues } from '../../engine/index/persist';
-import {
-  columnExtremes,
-  columnLargestAbs,
-  topTermsOfVector,
-} from '../../engine/insights/dimensions';
-import { projectionDrift, summariseDrift, type DriftSummary } from '../../engine/insights/drift';
-import { assessHealth, DEFAULT_HEALTH_THRESHOLDS } from '../../engine/insights/health';
-import { kmeans, KMeansInputError } from '../../engine/insights/kmeans';
-import { mapCoordinates } from '../../engine/insights/map';
-import { termNeighbours } from '../../engine/insights/neighbours';
-import { cumulativeEnergy, energyShare } from '../../engine/insights/spectrum';
-import { analyze } from '../../engine/text/analyzer';
+import type { ConceptSpace } from '../engine/index';
+import { decodeSingularValues } from '../engine/index';
+import { columnExtremes, columnLargestAbs, topTermsOfVector } from '../engine/index';
+import { projectionDrift, summariseDrift, type DriftSummary } from '../engine/index';
+import { assessHealth, DEFAULT_HEALTH_THRESHOLDS } from '../engine/index';
+import { kmeans, KMeansInputError } from '../engine/index';
+import { mapCoordinates } from '../engine/index';
+import { termNeighbours } from '../engine/index';
+import { cumulativeEnergy, energyShare } from '../engine/index';
+import { analyze } from '../engine/index';
 import {
   GROUP_TOP_TERMS,
   type ConceptDimension,

@@ -3,9 +3,9 @@
 // It writes the new version's vectors with status 'building'; the main thread switches
 // the matter over to it in one transaction, so a build that dies never replaces anything.
 import type { Kysely } from 'kysely';
-import { ConceptSpace } from '../../engine/index/concept-space';
-import { saveConceptSpace, type IndexTables } from '../../engine/index/persist';
-import type { Weighting } from '../../engine/index/weighting';
+import { ConceptSpace } from '../engine/index';
+import { saveConceptSpace, type IndexTables } from '../engine/index';
+import type { Weighting } from '../engine/index';
 import { openDatabase } from '../db/database';
 import { listIndexableTexts } from '../documents/queries';
 

@@ -4,9 +4,9 @@ import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { run as runImport } from '../../cli/commands/import';
+import { run as runImport } from '../cli/commands/import';
 import { makeText } from '../../corpus-demo/render';
-import { search } from '../../engine/search/search';
+import { search } from '../engine/index';
 import type { IndexStateResponse } from '../../shared/schemas/indexing';
 import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
 

@@ -5,15 +5,15 @@
 import { Worker } from 'node:worker_threads';
 import type { Kysely } from 'kysely';
 import type { Logger } from 'pino';
-import type { ConceptSpace } from '../../engine/index/concept-space';
+import type { ConceptSpace } from '../engine/index';
 import {
   decodeSingularValues,
   loadConceptSpace,
   saveFoldedDocuments,
   type IndexTables,
-} from '../../engine/index/persist';
-import type { Weighting } from '../../engine/index/weighting';
-import { prepareForSearch } from '../../engine/search/search';
+} from '../engine/index';
+import type { Weighting } from '../engine/index';
+import { prepareForSearch } from '../engine/index';
 import {
   automaticK,
   type IndexStateResponse,

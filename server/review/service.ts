@@ -1,5 +1,5 @@
-import { nearestTerms } from '../../engine/search/explain';
-import { analyze } from '../../engine/text/analyzer';
+import { nearestTerms } from '../engine/index';
+import { analyze } from '../engine/index';
 import type { DocumentRef, DocumentStatus } from '../../shared/schemas/documents';
 import {
   REVIEW_TEXT_MAX_CHARS,

@@ -1,10 +1,10 @@
-// "Why it matched" for one hit, after engine/search/explain.ts: with q_hat the query's
+// "Why it matched" for one hit, after server/engine/search/explain.ts: with q_hat the query's
 // vector, d_hat the document's row and d its weighted term vector, document term j
 // contributes d_j (u_j M . q_hat) / (||q_hat|| ||d_hat||) to the cosine (M = I for
 // 'projection' scaling, S_k^-1 for 'classic'); the contributions add up to the cosine.
 // The engine's explainMatch takes a query string; this takes any vector (a query, a
 // passage or a document for "more like this").
-import type { ConceptSpace } from '../../engine/index/concept-space';
+import type { ConceptSpace } from '../engine/index';
 
 function termDot(space: ConceptSpace, termId: number, x: ArrayLike<number>): number {
   const k = space.k;

@@ -1,12 +1,12 @@
 // analyzedTerms must be exactly the engine's analysis of a document's title and text
-// (engine/text/analyzer.ts), which "why it matched" weights as the index did.
+// (server/engine/text/analyzer.ts), which "why it matched" weights as the index did.
 // Checked on every document of Cranfield 1400 (Cleverdon, Mills & Keen 1966, read from
 // ../shared/data/cranfield), and on text where NFKC (Unicode Standard Annex #15) or
 // lower-casing (Unicode SpecialCasing: U+0130, final sigma) changes characters, where
 // the spans' tokens are not the analyzer's and the text must be analysed again.
 import { describe, expect, it } from 'vitest';
-import { cranfieldAvailable, cranfieldDir, readCranfield } from '../../engine/eval/cranfield';
-import { analyze } from '../../engine/text/analyzer';
+import { cranfieldAvailable, cranfieldDir, readCranfield } from '../engine/index';
+import { analyze } from '../engine/index';
 import { analyzedTerms, GenerationalMemo, termSpans } from './highlight';
 
 const present = cranfieldAvailable();

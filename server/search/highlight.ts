@@ -1,9 +1,9 @@
 // Term spans in a document's text, for snippets (search hits) and highlight ranges
 // (the viewer). A span's term is the engine's own analysis of the token
-// (engine/text/analyzer.ts: NFKC, lower case, stop words, Porter stemming), so a
+// (server/engine/text/analyzer.ts: NFKC, lower case, stop words, Porter stemming), so a
 // highlighted word is exactly a word the index saw as that term.
 import type { SnippetSegment } from '../../shared/schemas/search';
-import { analyze } from '../../engine/text/analyzer';
+import { analyze } from '../engine/index';
 
 /** Texts longer than this are only scanned this far for snippets and highlights. */
 export const SCAN_MAX_CHARS = 200_000;

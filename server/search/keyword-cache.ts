@@ -1,11 +1,11 @@
-// Each matter's in-memory keyword index (engine/search/keyword-index.ts), kept in step
+// Each matter's in-memory keyword index (server/engine/search/keyword-index.ts), kept in step
 // with the database: triggers log every change to searchable text in keyword_changes
 // (migration 2026_12_02_0700), and before each search the index applies the changes
 // logged since it last looked. A first build reads the matter's texts in batches and
 // yields between them, so other requests keep being served.
 import type SQLite from 'better-sqlite3';
 import type { Logger } from 'pino';
-import { KeywordIndex } from '../../engine/search/keyword-index';
+import { KeywordIndex } from '../engine/index';
 
 const BUILD_BATCH = 2000;
 const APPLY_BATCH = 500;

@@ -1,11 +1,11 @@
 // The search queries that return up to a whole matter's ids: the matter's in-memory
 // keyword index must match the documents SQLite FTS5 matches (its scores are checked
-// against FTS5's bm25 in engine/search/keyword-index.test.ts) and follow every change
+// against FTS5's bm25 in server/engine/search/keyword-index.test.ts) and follow every change
 // to the texts; filter candidates must come from the covering index. Data: Cranfield 1400 (Cleverdon, Mills & Keen 1966, ../shared/data/cranfield)
 // and its 225 queries, loaded as one matter's documents.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cranfieldAvailable, readCranfield } from '../../engine/eval/cranfield';
-import { keywordQueryTerms } from '../../engine/search/keyword-index';
+import { cranfieldAvailable, readCranfield } from '../engine/index';
+import { keywordQueryTerms } from '../engine/index';
 import { createTestApp, type TestApp } from '../../tests/helpers';
 import { replaceDocumentText } from '../documents/queries';
 import { documentsByIds, filteredDocumentIds } from './queries';

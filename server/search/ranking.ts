@@ -1,24 +1,24 @@
 // The result set of a search: which documents match, in score order. Shared by the
 // search API (which pages and explains it) and the results export (which writes all of it).
 //
-//  concept  - cosine in the matter's concept space (engine/search/top-n.ts over the
+//  concept  - cosine in the matter's concept space (server/engine/search/top-n.ts over the
 //             space's rows, candidates masked by the filters); documents at or above
 //             CONCEPT_MIN_COSINE are hits.
 //  keyword  - bm25 as SQLite FTS5 computes it, over the matter's in-memory keyword
-//             index (engine/search/keyword-index.ts, server/search/keyword-cache.ts);
+//             index (server/engine/search/keyword-index.ts, server/search/keyword-cache.ts);
 //             every document holding a query term is a hit.
-//  hybrid   - both lists fused (engine/search/fusion.ts: per-query min-max, then
+//  hybrid   - both lists fused (server/engine/search/fusion.ts: per-query min-max, then
 //             0.3 keyword + 0.7 concept on the first 100 concept axes, the defaults
 //             tuned on Cranfield, docs/RETRIEVAL.md).
 //  similar  - "more like this": a stored document's vector, or a passage folded in as
 //             a query (Deerwester et al. 1990, section 4), ranked like concept mode.
-import type { ConceptSpace } from '../../engine/index/concept-space';
-import { nearestTerms } from '../../engine/search/explain';
-import { fuseScores, type Scored } from '../../engine/search/fusion';
-import { keywordQueryTerms } from '../../engine/search/keyword-index';
-import { DEFAULT_HYBRID } from '../../engine/search/search';
-import { topCosine } from '../../engine/search/top-n';
-import { analyze } from '../../engine/text/analyzer';
+import type { ConceptSpace } from '../engine/index';
+import { nearestTerms } from '../engine/index';
+import { fuseScores, type Scored } from '../engine/index';
+import { keywordQueryTerms } from '../engine/index';
+import { DEFAULT_HYBRID } from '../engine/index';
+import { topCosine } from '../engine/index';
+import { analyze } from '../engine/index';
 import type { SearchFilters, SearchMode, SimilarTo } from '../../shared/schemas/search';
 import type { AppContext } from '../context';
 import { conflict, notFound } from '../http/errors';

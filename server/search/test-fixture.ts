@@ -4,8 +4,8 @@
 // graph theory), stored as real documents with invented metadata (custodians, dates,
 // types) and indexed through the engine (raw counts, k = 2, terms in two or more
 // documents: the paper's own set-up). Not a test file: the API tests import it.
-import { ConceptSpace } from '../../engine/index/concept-space';
-import { saveConceptSpace, type IndexTables } from '../../engine/index/persist';
+import { ConceptSpace } from '../engine/index';
+import { saveConceptSpace, type IndexTables } from '../engine/index';
 import type { Kysely } from 'kysely';
 import type { TestApp, TestMatter } from '../../tests/helpers';
 import { formatControlNumber } from '../documents/control-numbers';

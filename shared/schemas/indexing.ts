@@ -3,7 +3,7 @@ import type { Job } from './jobs';
 
 // The matter's concept-space index: state, versions and rebuilds.
 
-/** Term weightings the engine offers (engine/index/weighting.ts). */
+/** Term weightings the engine offers (server/engine/index/weighting.ts). */
 export const INDEX_WEIGHTINGS = ['log-entropy', 'tf-idf', 'raw'] as const;
 export type IndexWeighting = (typeof INDEX_WEIGHTINGS)[number];
 

@@ -1,0 +1,116 @@
+// The concept engine's public surface, for the server, the worker thread and the CLI.
+// Pure TypeScript over typed arrays; no Express, no server imports.
+export { analyze, tokenize, ANALYZER_VERSION } from './text/analyzer';
+export { buildTermDocumentMatrix, type TermDocumentMatrix } from './index/term-document';
+export {
+  globalWeights,
+  applyWeights,
+  localWeight,
+  WEIGHTINGS,
+  type Weighting,
+} from './index/weighting';
+export {
+  ConceptSpace,
+  EngineInputError,
+  SCALINGS,
+  type BuildDiagnostics,
+  type ConceptSpaceData,
+  type ConceptSpaceOptions,
+  type ConceptSpaceParams,
+  type DocId,
+  type FoldedDocument,
+  type Scaling,
+  type SourceDocument,
+  type WeightedTerms,
+} from './index/concept-space';
+export {
+  saveConceptSpace,
+  saveFoldedDocuments,
+  loadConceptSpace,
+  decodeSingularValues,
+  diagnosticsColumns,
+  INDEX_FORMAT_VERSION,
+  type IndexTables,
+  type SaveTarget,
+  type SaveOptions,
+} from './index/persist';
+export { topCosine, type TopN, type TopNOptions } from './search/top-n';
+export {
+  toFtsMatchExpression,
+  keywordSearch,
+  KEYWORD_TABLES_DDL,
+  type KeywordHit,
+  type KeywordSearchOptions,
+} from './search/keyword';
+export { fuseScores, minMaxNormalise, type FusedHit, type Scored } from './search/fusion';
+export {
+  search,
+  prepareForSearch,
+  similarDocuments,
+  conceptRanking,
+  DEFAULT_HYBRID,
+  SEARCH_MODES,
+  type KeywordSource,
+  type SearchHit,
+  type SearchMode,
+  type SearchOptions,
+  type SearchResult,
+} from './search/search';
+export {
+  explainMatch,
+  nearestTerms,
+  type Explanation,
+  type NearTerm,
+  type TermContribution,
+} from './search/explain';
+export {
+  evaluateRanking,
+  meanMetrics,
+  type MeanMetrics,
+  type QueryMetrics,
+  type Qrels,
+} from './eval/metrics';
+export {
+  readDocsJsonl,
+  readQueriesJsonl,
+  readQrels,
+  parseDocsJsonl,
+  parseQueriesJsonl,
+  parseQrels,
+  EvalInputError,
+  type EvalDocument,
+  type EvalQuery,
+} from './eval/readers';
+export {
+  prepareCollection,
+  runEvaluation,
+  type PreparedCollection,
+  type EvaluationRun,
+} from './eval/evaluate';
+export { cranfieldAvailable, cranfieldDir, readCranfield } from './eval/cranfield';
+export { partsFor } from './eval/evaluate';
+export {
+  type IndexBlobsTable,
+  type IndexDocsTable,
+  type IndexTermsTable,
+  type IndexVersionsTable,
+} from './index/persist';
+export { columnExtremes, columnLargestAbs, topTermsOfVector } from './insights/dimensions';
+export { projectionDrift, summariseDrift, type DriftSummary } from './insights/drift';
+export { assessHealth, DEFAULT_HEALTH_THRESHOLDS } from './insights/health';
+export { kmeans, KMeansInputError } from './insights/kmeans';
+export { mapCoordinates } from './insights/map';
+export { termNeighbours } from './insights/neighbours';
+export { cumulativeEnergy, energyShare } from './insights/spectrum';
+export { writeMatrixMarket, MatrixMarketError, readMatrixMarket } from './io/matrix-market';
+export { energyKept, orthogonalityError, conditionNumber } from './linalg/diagnostics';
+export { mulberry32 } from './linalg/random';
+export {
+  truncatedSvd,
+  type SvdOptions,
+  type TruncatedSvd,
+  numericalRank,
+  validateK,
+} from './linalg/svd';
+export { KeywordIndex, keywordQueryTerms } from './search/keyword-index';
+export { frobeniusNormSq, nnzOf, type CsrMatrix, csrFromTriplets } from './sparse/csr';
