@@ -14,9 +14,9 @@ export interface Config {
   /** nodemailer SMTP URL; when unset the app runs a local fake SMTP server (see server/mail). */
   smtpUrl: string | null;
   mailFrom: string;
-  /** Demo mode (default on): seeds demo accounts and shows the dev mail page. */
+  /** Demo mode (default on): seeds demo accounts; firm admins may read the dev mail page. */
   demoMode: boolean;
-  /** Development mode (`npm run dev`): also shows the dev mail page. */
+  /** Development mode (`npm run dev`): the dev mail page is open to anyone. */
   devMode: boolean;
   /** Origin users reach the app on (e.g. https://quarry.example.com); used for links and the CSRF check. */
   publicOrigin: string | null;
@@ -145,4 +145,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
 /** Whether the dev-only pages (the fake mailbox) are served. */
 export function devPagesEnabled(config: Config): boolean {
   return config.demoMode || config.devMode;
+}
+
+/**
+ * Who may read the fake mailbox: anyone on the developer's own `npm run dev` server,
+ * only firm admins in demo mode (its links are credentials), nobody otherwise.
+ */
+export function devMailboxAccess(config: Config): 'anyone' | 'firm-admins' | 'off' {
+  if (config.devMode) return 'anyone';
+  return config.demoMode ? 'firm-admins' : 'off';
 }

@@ -36,6 +36,8 @@ export interface RouteSpec<A extends Access = Access, S extends RequestSchemas =
   method: HttpMethod;
   path: string;
   access: A;
+  /** The rule in development mode (QUARRY_DEV=1, `npm run dev`) instead of `access`. */
+  devAccess?: Access;
   schemas?: S;
   status?: number;
   /** One line for docs and the authorization-matrix test output. */
@@ -50,6 +52,7 @@ export interface AnyRouteSpec {
   method: HttpMethod;
   path: string;
   access: Access;
+  devAccess?: Access;
   schemas?: RequestSchemas;
   status?: number;
   summary: string;
@@ -89,6 +92,8 @@ export function mountRoutes(
     if (seen.has(key)) throw new Error(`route declared twice: ${key}`);
     seen.add(key);
     assertKnownAccess(spec.access, key);
+    if (spec.devAccess) assertKnownAccess(spec.devAccess, key);
+    const access = ctx.config.devMode && spec.devAccess ? spec.devAccess : spec.access;
     // Anything under a matter is scoped to its members (or firm admins on /admin routes).
     if (/:matterId(\/|$)/.test(spec.path) && typeof spec.access === 'string') {
       throw new Error(`${key}: a route with :matterId needs a { matter } or { firm } access rule`);
@@ -113,7 +118,7 @@ export function mountRoutes(
     handler[DECLARED_ROUTE] = spec;
     router[spec.method](
       spec.path,
-      requireAccess(ctx.db, spec.access),
+      requireAccess(ctx.db, access),
       ...(spec.middleware?.(ctx) ?? []),
       validate(spec.schemas),
       handler,

@@ -4,6 +4,7 @@ import { useSignOut } from '../../features/auth/api/sign-out';
 import { cn } from '../../lib/cn';
 import { Button } from '../ui';
 import { AppFooter } from './app-footer';
+import { DemoBanner } from './demo-banner';
 import { Wordmark } from './wordmark';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
@@ -27,6 +28,7 @@ export function AppLayout() {
       >
         Skip to content
       </a>
+      <DemoBanner />
       <header className="border-t-[3px] border-b border-t-accent border-b-line bg-panel">
         <div className="mx-auto flex h-12 max-w-[88rem] items-center gap-5 px-4">
           <Wordmark />
