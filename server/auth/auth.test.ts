@@ -6,7 +6,14 @@
 // (Retry-After) and RFC 6585 section 4 (429 Too Many Requests).
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, test } from 'vitest';
 import { createTestApp, type TestApp, type TestUser } from '../../tests/helpers';
-import { SIGN_IN_MAX_FAILURES_PER_ACCOUNT, SIGN_IN_MAX_FAILURES_PER_IP } from './rate-limit';
+import {
+  PasswordThrottle,
+  SIGN_IN_FIRST_DELAY_MS,
+  SIGN_IN_FREE_FAILURES_PER_ADDRESS,
+  SIGN_IN_MAX_FAILURES_PER_ACCOUNT,
+  SIGN_IN_MAX_FAILURES_PER_IP,
+  SIGN_IN_WINDOW_MS,
+} from './rate-limit';
 import { SESSION_COOKIE } from './session';
 
 function sessionCookie(setCookie: string[] | string | undefined): string | undefined {
@@ -256,10 +263,10 @@ describe('failed sign-in rate limits', () => {
   const attempt = (email: string, password: string) =>
     t.agent().post('/api/auth/sign-in').send({ email, password });
 
-  test(`per account: after ${SIGN_IN_MAX_FAILURES_PER_ACCOUNT} failures even the right password gets 429 with Retry-After; other accounts are unaffected`, async () => {
+  test(`per account and address: after ${SIGN_IN_FREE_FAILURES_PER_ADDRESS} failures even the right password gets 429 with Retry-After; other accounts are unaffected`, async () => {
     const user = await t.buildUser();
     const bystander = await t.buildUser();
-    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT; i++) {
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS; i++) {
       expect((await attempt(user.email, `wrong ${i}`)).status).toBe(401);
     }
     const blocked = await attempt(user.email, user.password);
@@ -267,12 +274,12 @@ describe('failed sign-in rate limits', () => {
     expect(blocked.body.error.code).toBe('rate_limited');
     const retryAfter = Number(blocked.headers['retry-after']);
     expect(retryAfter).toBeGreaterThan(0);
-    expect(retryAfter).toBeLessThanOrEqual(15 * 60);
+    expect(retryAfter).toBeLessThanOrEqual(SIGN_IN_FIRST_DELAY_MS / 1000);
     expect((await attempt(bystander.email, bystander.password)).status).toBe(200);
   });
 
   test('unknown accounts are limited the same way (the limit does not reveal existence)', async () => {
-    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT; i++) {
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS; i++) {
       expect((await attempt('ghost@example.com', 'x')).status).toBe(401);
     }
     expect((await attempt('ghost@example.com', 'x')).status).toBe(429);
@@ -280,10 +287,10 @@ describe('failed sign-in rate limits', () => {
 
   test('successful sign-ins do not count towards the limit', async () => {
     const user = await t.buildUser();
-    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT + 1; i++) {
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS + 1; i++) {
       expect((await attempt(user.email, user.password)).status).toBe(200);
     }
-    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT - 1; i++) {
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS - 1; i++) {
       expect((await attempt(user.email, 'wrong')).status).toBe(401);
     }
     // Still one failure short of the limit: the right password works.
@@ -300,6 +307,109 @@ describe('failed sign-in rate limits', () => {
     const blocked = await attempt(user.email, user.password);
     expect(blocked.status).toBe(429);
     expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+  });
+});
+
+describe('an attacker elsewhere cannot lock the owner out', () => {
+  // The review: five wrong passwords from any addresses made the owner's right password
+  // fail for 15 minutes. Addresses here come from X-Forwarded-For behind a trusted proxy.
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await createTestApp({ env: { QUARRY_TRUST_PROXY: '1' } });
+  });
+  afterAll(() => t.close());
+
+  const from = (address: string, email: string, password: string) =>
+    t.agent().post('/api/auth/sign-in').set('X-Forwarded-For', address).send({ email, password });
+
+  test('after many failures from one address, the owner signs in from another', async () => {
+    const owner = await t.buildUser();
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS + 1; i++)
+      expect([401, 429]).toContain((await from('203.0.113.9', owner.email, `guess ${i}`)).status);
+    expect((await from('203.0.113.9', owner.email, owner.password)).status).toBe(429);
+    expect((await from('198.51.100.20', owner.email, owner.password)).status).toBe(200);
+  });
+
+  test('failures spread over several addresses do not lock the owner either', async () => {
+    const owner = await t.buildUser();
+    for (let i = 0; i < 10; i++)
+      expect((await from(`203.0.113.${100 + i}`, owner.email, 'wrong')).status).toBe(401);
+    expect((await from('198.51.100.21', owner.email, owner.password)).status).toBe(200);
+  });
+});
+
+describe('password throttle (controllable clock)', () => {
+  test('delays grow: free failures, then a wait that doubles from the first delay up to the window', () => {
+    let now = 1_000_000;
+    const throttle = new PasswordThrottle(() => now);
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS; i++) {
+      expect(throttle.waitMs('a@example.com', '192.0.2.1')).toBe(0);
+      throttle.recordFailure('a@example.com', '192.0.2.1');
+    }
+    const waits: number[] = [];
+    for (let i = 0; i < 5; i++) {
+      const wait = throttle.waitMs('a@example.com', '192.0.2.1');
+      waits.push(wait);
+      now += wait;
+      expect(throttle.waitMs('A@Example.com ', '192.0.2.1')).toBe(0);
+      throttle.recordFailure('a@example.com', '192.0.2.1');
+    }
+    // 30 s, 1, 2, 4 and 8 minutes (the window, 15 minutes, caps the delay).
+    expect(waits).toEqual([1, 2, 4, 8, 16].map((m) => m * SIGN_IN_FIRST_DELAY_MS));
+    // Another address is not slowed at all.
+    expect(throttle.waitMs('a@example.com', '192.0.2.2')).toBe(0);
+    // Failures older than the window are forgotten.
+    now += SIGN_IN_WINDOW_MS;
+    expect(throttle.waitMs('a@example.com', '192.0.2.1')).toBe(0);
+  });
+
+  test(`the per-account cap (${SIGN_IN_MAX_FAILURES_PER_ACCOUNT} failures from all addresses) sits far above the per-address one`, () => {
+    let now = 5_000_000;
+    const throttle = new PasswordThrottle(() => now);
+    expect(SIGN_IN_MAX_FAILURES_PER_ACCOUNT).toBeGreaterThanOrEqual(
+      10 * SIGN_IN_FREE_FAILURES_PER_ADDRESS,
+    );
+    for (let i = 0; i < SIGN_IN_MAX_FAILURES_PER_ACCOUNT - 1; i++) {
+      throttle.recordFailure('b@example.com', `10.0.${Math.floor(i / 250)}.${i % 250}`);
+      now += 1000;
+    }
+    expect(throttle.waitMs('b@example.com', '192.0.2.9')).toBe(0);
+    throttle.recordFailure('b@example.com', '10.9.9.9');
+    const wait = throttle.waitMs('b@example.com', '192.0.2.9');
+    expect(wait).toBeGreaterThan(0);
+    expect(wait).toBeLessThanOrEqual(SIGN_IN_WINDOW_MS);
+    expect(throttle.waitMs('other@example.com', '192.0.2.9')).toBe(0);
+  });
+});
+
+describe('every password check is throttled like sign-in', () => {
+  let t: TestApp;
+  beforeEach(async () => {
+    t = await createTestApp();
+  });
+  afterEach(() => t.close());
+
+  test('the current password on a password change: 429 after the free failures, even when right', async () => {
+    const user = await t.buildUser();
+    const agent = await t.agentFor(user);
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS; i++) {
+      const wrong = await agent
+        .post('/api/auth/password')
+        .send({ currentPassword: `wrong ${i}`, newPassword: 'a brand new passphrase' });
+      expect(wrong.status).toBe(400);
+    }
+    const blocked = await agent
+      .post('/api/auth/password')
+      .send({ currentPassword: user.password, newPassword: 'a brand new passphrase' });
+    expect(blocked.status).toBe(429);
+    expect(blocked.body.error.code).toBe('rate_limited');
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    // The same account's sign-in from this address shares the count.
+    const signIn = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    expect(signIn.status).toBe(429);
   });
 });
 

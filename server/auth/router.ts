@@ -1,6 +1,5 @@
 import { changePasswordSchema, signInSchema } from '../../shared/schemas/auth';
 import { defineRoute } from '../http/route';
-import { signInRateLimits } from './rate-limit';
 import { changePassword, readMe, signIn, signOut } from './service';
 
 export const authRoutes = [
@@ -9,7 +8,6 @@ export const authRoutes = [
     path: '/auth/sign-in',
     access: 'public',
     schemas: { body: signInSchema },
-    middleware: () => signInRateLimits(),
     summary: 'Sign in with e-mail and password',
     handler: ({ ctx, req, res, body, ip }) => signIn(ctx, req, res, body, ip),
   }),

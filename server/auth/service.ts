@@ -42,12 +42,14 @@ export async function signIn(
   input: SignInReq,
   ip: string | null,
 ): Promise<MeResponse> {
+  ctx.auth.throttle.assertAllowed(res, input.email, ip);
   const user = await findUserByEmail(ctx.db, input.email);
   const usable = user && user.disabled_at === null;
   const ok = usable
     ? await verifyPassword(user.password_hash, input.password)
     : await verifyAgainstDummy(input.password);
   if (!ok || !user) {
+    ctx.auth.throttle.recordFailure(input.email, ip);
     await recordAudit(ctx.db, {
       actorId: user?.id ?? null,
       actorEmail: input.email,
@@ -89,7 +91,9 @@ export async function changePassword(
 ): Promise<MeResponse> {
   const user = await findUserById(ctx.db, sessionUser.id);
   if (!user) throw unauthenticated();
+  ctx.auth.throttle.assertAllowed(res, user.email, ip);
   if (!(await verifyPassword(user.password_hash, input.currentPassword))) {
+    ctx.auth.throttle.recordFailure(user.email, ip);
     throw validationError('currentPassword', 'is incorrect');
   }
   await updatePasswordHash(ctx.db, user.id, await hashPassword(input.newPassword));

@@ -4,6 +4,7 @@ import type { Request, RequestHandler, Response } from 'express';
 import { Lucia, TimeSpan } from 'lucia';
 import type { Config } from '../config';
 import type { AuthState, SessionUser } from '../http/request-context';
+import { PasswordThrottle } from './rate-limit';
 
 // ALL lucia code lives in this module. Sessions are rows in `sessions`
 // (id, user_id, expires_at in seconds) read through @lucia-auth/adapter-sqlite.
@@ -56,6 +57,8 @@ export interface Auth {
   /** Reads the session cookie and sets req.auth (null when absent, expired or invalid). */
   middleware: RequestHandler;
   deleteExpiredSessions(): Promise<void>;
+  /** Failed password checks of every kind, per account and client address (rate-limit.ts). */
+  throttle: PasswordThrottle;
 }
 
 export function createAuth(sqlite: SQLite.Database, config: Config): Auth {
@@ -118,5 +121,6 @@ export function createAuth(sqlite: SQLite.Database, config: Config): Auth {
     },
     middleware,
     deleteExpiredSessions: () => lucia.deleteExpiredSessions(),
+    throttle: new PasswordThrottle(),
   };
 }

@@ -12,6 +12,7 @@ import {
   type TestMatter,
   type TestUser,
 } from '../../tests/helpers';
+import { SIGN_IN_FREE_FAILURES_PER_ADDRESS } from '../auth/rate-limit';
 
 let t: TestApp;
 let lead: TestUser;
@@ -314,6 +315,35 @@ describe('an existing account accepts', () => {
       .send({ password: existing.password });
     expect(accepted.status).toBe(200);
     expect((await agent.get('/api/auth/me')).body.user.id).toBe(existing.id);
+  });
+});
+
+describe('password guesses through an invitation link', () => {
+  // The review: 30 guesses of an existing account's password through its invitation all
+  // got a plain 401, never 429. They now share the sign-in throttle (server/auth/rate-limit.ts).
+  test('429 with Retry-After after the free failures, even for the right password; sign-in shares the count', async () => {
+    const existing = await t.buildUser({ email: 'guessed@example.com' });
+    await invite(existing.email, 'reviewer');
+    const token = tokenOf(await linkFor(existing.email));
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS; i++) {
+      const wrong = await t
+        .agent()
+        .post(`/api/invitations/${token}/accept`)
+        .send({ password: `guess number ${i}` });
+      expect(wrong.status).toBe(401);
+    }
+    const blocked = await t
+      .agent()
+      .post(`/api/invitations/${token}/accept`)
+      .send({ password: existing.password });
+    expect(blocked.status).toBe(429);
+    expect(blocked.body.error.code).toBe('rate_limited');
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    const signIn = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: existing.email, password: existing.password });
+    expect(signIn.status).toBe(429);
   });
 });
 

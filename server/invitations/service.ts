@@ -190,7 +190,10 @@ export async function acceptInvitation(
           'password',
         );
       }
+      // The same throttle as sign-in: this is a password check too.
+      ctx.auth.throttle.assertAllowed(res, existing.email, ip);
       if (!(await verifyPassword(existing.password_hash, input.password))) {
+        ctx.auth.throttle.recordFailure(existing.email, ip);
         throw new HttpError(
           'invalid_credentials',
           `The password is not correct for ${existing.email}.`,
