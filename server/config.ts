@@ -24,6 +24,8 @@ export interface Config {
   trustProxy: boolean | number | string;
   /** Idle session lifetime; lucia extends a session used in the second half of its life. */
   sessionTtlHours: number;
+  /** Absolute session lifetime: no extension passes created + this (ASVS 4.0.3 V3.3.2). */
+  sessionMaxHours: number;
   invitationTtlDays: number;
   upload: {
     maxFileBytes: number;
@@ -77,6 +79,11 @@ const envSchema = z.object({
     .positive()
     .max(24 * 90)
     .default(12),
+  QUARRY_SESSION_MAX_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 365)
+    .default(24 * 7),
   QUARRY_INVITATION_TTL_DAYS: z.coerce.number().positive().max(90).default(7),
   QUARRY_MAX_FILE_BYTES: int(1).default(UPLOAD_DEFAULTS.maxFileBytes),
   QUARRY_MAX_FILES_PER_REQUEST: int(1).default(UPLOAD_DEFAULTS.maxFilesPerRequest),
@@ -128,6 +135,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     publicOrigin: e.QUARRY_PUBLIC_ORIGIN ?? null,
     trustProxy: e.QUARRY_TRUST_PROXY,
     sessionTtlHours: e.QUARRY_SESSION_TTL_HOURS,
+    sessionMaxHours: e.QUARRY_SESSION_MAX_HOURS,
     invitationTtlDays: e.QUARRY_INVITATION_TTL_DAYS,
     upload: {
       maxFileBytes: e.QUARRY_MAX_FILE_BYTES,

@@ -4,7 +4,7 @@
 // OWASP Session Management Cheat Sheet (renew/invalidate sessions on password change),
 // OWASP CSRF Prevention Cheat Sheet (Origin verification), RFC 9110 section 10.2.3
 // (Retry-After) and RFC 6585 section 4 (429 Too Many Requests).
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, test } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, test, vi } from 'vitest';
 import { createTestApp, type TestApp, type TestUser } from '../../tests/helpers';
 import {
   PasswordThrottle,
@@ -14,11 +14,14 @@ import {
   SIGN_IN_MAX_FAILURES_PER_IP,
   SIGN_IN_WINDOW_MS,
 } from './rate-limit';
-import { SESSION_COOKIE } from './session';
+import { SECURE_SESSION_COOKIE, SESSION_COOKIE } from './session';
 
-function sessionCookie(setCookie: string[] | string | undefined): string | undefined {
+function sessionCookie(
+  setCookie: string[] | string | undefined,
+  name = SESSION_COOKIE,
+): string | undefined {
   const list = Array.isArray(setCookie) ? setCookie : setCookie ? [setCookie] : [];
-  return list.find((cookie) => cookie.startsWith(`${SESSION_COOKIE}=`));
+  return list.find((cookie) => cookie.startsWith(`${name}=`));
 }
 
 function attributes(cookie: string): Map<string, string> {
@@ -157,7 +160,7 @@ describe('sign-in and session cookie', () => {
     expect((await t.agent().get('/api/auth/me').set('Cookie', secondCookie)).status).toBe(200);
   });
 
-  test('Secure is set when served over HTTPS behind a trusted proxy (X-Forwarded-Proto)', async () => {
+  test('over HTTPS behind a trusted proxy (X-Forwarded-Proto) the cookie is __Host-quarry_session and Secure', async () => {
     const proxied = await createTestApp({ env: { QUARRY_TRUST_PROXY: '1' } });
     try {
       const person = await proxied.buildUser();
@@ -169,9 +172,25 @@ describe('sign-in and session cookie', () => {
         .set('Origin', https)
         .send({ email: person.email, password: person.password });
       expect(response.status).toBe(200);
-      expect(
-        attributes(sessionCookie(response.headers['set-cookie']) as string).has('secure'),
-      ).toBe(true);
+      // RFC 6265bis section 4.1.3.2: a __Host- cookie must be Secure, Path=/, without Domain.
+      expect(sessionCookie(response.headers['set-cookie'])).toBeUndefined();
+      const cookie = sessionCookie(response.headers['set-cookie'], SECURE_SESSION_COOKIE);
+      expect(cookie).toBeDefined();
+      const attrs = attributes(cookie as string);
+      expect(attrs.has('secure')).toBe(true);
+      expect(attrs.get('path')).toBe('/');
+      expect(attrs.has('domain')).toBe(false);
+      expect(attrs.has('httponly')).toBe(true);
+      // The prefixed cookie is the one read over HTTPS; a plain-named one is ignored there.
+      const id = (cookie as string).split(';')[0].split('=')[1];
+      const me = (name: string) =>
+        proxied
+          .agent()
+          .get('/api/auth/me')
+          .set('X-Forwarded-Proto', 'https')
+          .set('Cookie', `${name}=${id}`);
+      expect((await me(SECURE_SESSION_COOKIE)).status).toBe(200);
+      expect((await me(SESSION_COOKIE)).status).toBe(401);
     } finally {
       await proxied.close();
     }
@@ -196,6 +215,51 @@ describe('session lifetime', () => {
       expect(left).toEqual([]);
     } finally {
       await shortLived.close();
+    }
+  });
+});
+
+describe('absolute session lifetime (OWASP ASVS 4.0.3 V3.3.2), with a controlled clock', () => {
+  const HOUR = 60 * 60 * 1000;
+  afterEach(() => {
+    vi.useRealTimers();
+  });
+
+  test('a session used every 7 hours is extended, but never past 7 days from its start, and then ends', async () => {
+    const t = await createTestApp(); // defaults: 12 h idle, 168 h absolute
+    try {
+      const start = Date.UTC(2026, 11, 4, 9, 0, 0);
+      // Only Date is faked: lucia and the middleware read the time from it.
+      vi.useFakeTimers({ toFake: ['Date'], now: start });
+      const person = await t.buildUser();
+      const agent = await t.agentFor(person);
+      const end = start + t.ctx.config.sessionMaxHours * HOUR;
+      expect(t.ctx.config.sessionMaxHours).toBe(7 * 24);
+      let extensions = 0;
+      for (let at = start + 7 * HOUR; at < end; at += 7 * HOUR) {
+        vi.setSystemTime(at);
+        const response = await agent.get('/api/auth/me');
+        expect(response.status, new Date(at).toISOString()).toBe(200);
+        const row = await t.ctx.db
+          .selectFrom('sessions')
+          .select(['created_at', 'expires_at'])
+          .where('user_id', '=', person.id)
+          .executeTakeFirstOrThrow();
+        expect(row.created_at).toBe(start / 1000);
+        expect(row.expires_at).toBeLessThanOrEqual(end / 1000);
+        const cookie = sessionCookie(response.headers['set-cookie']);
+        if (cookie) {
+          extensions++;
+          expect(Number(attributes(cookie).get('max-age'))).toBeLessThanOrEqual((end - at) / 1000);
+        }
+      }
+      // Past 12 h of use, the idle lifetime alone would have kept it forever.
+      expect(extensions).toBeGreaterThan(10);
+      vi.setSystemTime(end + 1000);
+      expect((await agent.get('/api/auth/me')).status).toBe(401);
+    } finally {
+      vi.useRealTimers();
+      await t.close();
     }
   });
 });

@@ -18,12 +18,18 @@ export interface UsersTable {
   disabled_at: string | null;
   password_changed_at: string;
   created_at: string;
+  /** 1: a firm admin set a temporary password; nothing but changing it is allowed. */
+  password_must_change: Generated<number>;
+  /** When a temporary password stops working (ISO 8601); null for chosen passwords. */
+  password_expires_at: Generated<string | null>;
 }
 
 export interface SessionsTable {
   id: string;
   user_id: string;
   expires_at: number;
+  /** Unix seconds; the absolute lifetime counts from here. */
+  created_at: number;
 }
 
 export interface MattersTable {
