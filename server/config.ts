@@ -27,6 +27,8 @@ export interface Config {
   /** Absolute session lifetime: no extension passes created + this (ASVS 4.0.3 V3.3.2). */
   sessionMaxHours: number;
   invitationTtlDays: number;
+  /** How long a temporary password set by a firm admin works (it must be changed at first sign-in). */
+  temporaryPasswordHours: number;
   upload: {
     maxFileBytes: number;
     maxFilesPerRequest: number;
@@ -85,6 +87,11 @@ const envSchema = z.object({
     .max(24 * 365)
     .default(24 * 7),
   QUARRY_INVITATION_TTL_DAYS: z.coerce.number().positive().max(90).default(7),
+  QUARRY_TEMPORARY_PASSWORD_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 30)
+    .default(72),
   QUARRY_MAX_FILE_BYTES: int(1).default(UPLOAD_DEFAULTS.maxFileBytes),
   QUARRY_MAX_FILES_PER_REQUEST: int(1).default(UPLOAD_DEFAULTS.maxFilesPerRequest),
   QUARRY_MAX_REQUEST_BYTES: int(1).default(UPLOAD_DEFAULTS.maxRequestBytes),
@@ -137,6 +144,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     sessionTtlHours: e.QUARRY_SESSION_TTL_HOURS,
     sessionMaxHours: e.QUARRY_SESSION_MAX_HOURS,
     invitationTtlDays: e.QUARRY_INVITATION_TTL_DAYS,
+    temporaryPasswordHours: e.QUARRY_TEMPORARY_PASSWORD_HOURS,
     upload: {
       maxFileBytes: e.QUARRY_MAX_FILE_BYTES,
       maxFilesPerRequest: e.QUARRY_MAX_FILES_PER_REQUEST,

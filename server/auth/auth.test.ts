@@ -477,6 +477,124 @@ describe('every password check is throttled like sign-in', () => {
   });
 });
 
+describe('password quality (OWASP ASVS 4.0.3 V2.1.7, V2.3.1)', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await createTestApp();
+  });
+  afterAll(() => t.close());
+
+  test.each([
+    // On the leaked-password frequency list of @zxcvbn-ts/language-common ("passwords").
+    ['a breached password from the list', '123qweasdzxc'],
+    ['a listed password with digits added', 'password1234'],
+    ['a keyboard walk', 'qwertyuiop12'],
+    ['one repeated character', 'aaaaaaaaaaaa'],
+  ])(
+    'a new password that is %s is refused with 400 naming newPassword',
+    async (_name, newPassword) => {
+      const user = await t.buildUser();
+      const agent = await t.agentFor(user);
+      const response = await agent
+        .post('/api/auth/password')
+        .send({ currentPassword: user.password, newPassword });
+      expect(response.status).toBe(400);
+      expect(response.body.error).toMatchObject({
+        code: 'validation_failed',
+        field: 'newPassword',
+      });
+      expect(response.body.error.message).toMatch(/^newPassword: is too easy to guess/);
+    },
+  );
+
+  test('a password built from the account e-mail is refused', async () => {
+    const user = await t.buildUser({ email: 'marguerite.hollowell@example.com' });
+    const agent = await t.agentFor(user);
+    const response = await agent
+      .post('/api/auth/password')
+      .send({ currentPassword: user.password, newPassword: 'margueritehollowell1' });
+    expect(response.status).toBe(400);
+    expect(response.body.error.field).toBe('newPassword');
+  });
+
+  test('reusing the current password is refused', async () => {
+    const user = await t.buildUser();
+    const agent = await t.agentFor(user);
+    const response = await agent
+      .post('/api/auth/password')
+      .send({ currentPassword: user.password, newPassword: user.password });
+    expect(response.status).toBe(400);
+    expect(response.body.error).toMatchObject({
+      field: 'newPassword',
+      message: 'newPassword: must differ from the current password',
+    });
+  });
+
+  test('an admin-set temporary password must be changed before anything else, then works normally', async () => {
+    const admin = await t.agentFor(await t.buildUser({ isAdmin: true }));
+    const temporary = 'lichen harbour pewter kettle';
+    const created = await admin.post('/api/admin/users').send({
+      name: 'Tamsin Vale',
+      email: 'tamsin.vale@example.com',
+      temporaryPassword: temporary,
+    });
+    expect(created.status).toBe(201);
+    const agent = t.agent();
+    const signedIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: 'tamsin.vale@example.com', password: temporary });
+    expect(signedIn.status).toBe(200);
+    expect(signedIn.body.passwordChangeRequired).toBe(true);
+    expect((await agent.get('/api/auth/me')).body.passwordChangeRequired).toBe(true);
+    const refused = await agent.get('/api/matters');
+    expect(refused.status).toBe(403);
+    expect(refused.body.error.code).toBe('password_change_required');
+    const changed = await agent
+      .post('/api/auth/password')
+      .send({ currentPassword: temporary, newPassword: 'my own quiet orchard lane' });
+    expect(changed.status).toBe(200);
+    expect(changed.body.passwordChangeRequired).toBe(false);
+    expect((await agent.get('/api/matters')).status).toBe(200);
+  });
+
+  test(`a temporary password stops working after QUARRY_TEMPORARY_PASSWORD_HOURS (72 h)`, async () => {
+    expect(t.ctx.config.temporaryPasswordHours).toBe(72);
+    const admin = await t.agentFor(await t.buildUser({ isAdmin: true }));
+    const temporary = 'copper wren meadow signal';
+    await admin.post('/api/admin/users').send({
+      name: 'Ewan Lark',
+      email: 'ewan.lark@example.com',
+      temporaryPassword: temporary,
+    });
+    const signIn = () =>
+      t
+        .agent()
+        .post('/api/auth/sign-in')
+        .send({ email: 'ewan.lark@example.com', password: temporary });
+    try {
+      vi.useFakeTimers({ toFake: ['Date'], now: Date.now() + 71 * 60 * 60 * 1000 });
+      expect((await signIn()).status).toBe(200);
+      vi.setSystemTime(Date.now() + 2 * 60 * 60 * 1000);
+      const expired = await signIn();
+      expect(expired.status).toBe(401);
+      expect(expired.body.error.message).toMatch(/temporary password has expired/);
+    } finally {
+      vi.useRealTimers();
+    }
+  });
+
+  test('an admin cannot hand out a guessable temporary password either', async () => {
+    const admin = await t.agentFor(await t.buildUser({ isAdmin: true }));
+    const response = await admin.post('/api/admin/users').send({
+      name: 'Guessable',
+      email: 'guessable@example.com',
+      temporaryPassword: 'Password1234',
+    });
+    expect(response.status).toBe(400);
+    expect(response.body.error.field).toBe('temporaryPassword');
+  });
+});
+
 describe('cross-site request forgery', () => {
   let t: TestApp;
   let user: TestUser;

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { MatterPermission } from '../../shared/roles';
 import type { AppContext } from '../context';
 import { assertKnownAccess, requireAccess, type Access } from '../policy/policy';
+import { HttpError } from './errors';
 import type { MatterAccess, SessionUser } from './request-context';
 import { validate, type ParsedInput, type RequestSchemas } from './validate';
 
@@ -38,6 +39,12 @@ export interface RouteSpec<A extends Access = Access, S extends RequestSchemas =
   access: A;
   /** The rule in development mode (QUARRY_DEV=1, `npm run dev`) instead of `access`. */
   devAccess?: Access;
+  /**
+   * Open to a session whose password a firm admin set and that must change it first
+   * (reading me, changing the password). Every other signed-in route refuses it with 403
+   * password_change_required (OWASP ASVS 4.0.3 V2.3.1).
+   */
+  beforePasswordChange?: boolean;
   schemas?: S;
   status?: number;
   /** One line for docs and the authorization-matrix test output. */
@@ -53,6 +60,7 @@ export interface AnyRouteSpec {
   path: string;
   access: Access;
   devAccess?: Access;
+  beforePasswordChange?: boolean;
   schemas?: RequestSchemas;
   status?: number;
   summary: string;
@@ -116,8 +124,18 @@ export function mountRoutes(
       else res.status(spec.status ?? 200).json(result);
     };
     handler[DECLARED_ROUTE] = spec;
+    const passwordGate: RequestHandler = (req, _res, next) =>
+      req.auth?.mustChangePassword && access !== 'public' && !spec.beforePasswordChange
+        ? next(
+            new HttpError(
+              'password_change_required',
+              'A firm administrator set your password: choose your own (My account) before anything else.',
+            ),
+          )
+        : next();
     router[spec.method](
       spec.path,
+      passwordGate,
       requireAccess(ctx.db, access),
       ...(spec.middleware?.(ctx) ?? []),
       validate(spec.schemas),

@@ -1,5 +1,6 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, it } from 'vitest';
+import { createUserByAdmin } from '../../server/admin/service';
 import { createInvitation } from '../../server/invitations/service';
 import {
   type BrowserSession,
@@ -77,6 +78,56 @@ describeBrowser('accepting an invitation with a new account', () => {
       expect(await p.getByText('This page failed').count()).toBe(0);
       expect(await p.getByText('CancelledError').count()).toBe(0);
       expect(await p.getByTestId('demo-banner').isVisible()).toBe(true);
+    },
+  );
+
+  it(
+    'an account with an admin-set temporary password is sent to the password change first',
+    { timeout: 60_000 },
+    async () => {
+      page = await browser.context.newPage();
+      screenshotOnFailure(() => page, 'temporary-password');
+      const p = page;
+      const { ctx, baseUrl } = quarry;
+      await p.context().clearCookies();
+      const admin = await ctx.db
+        .selectFrom('users')
+        .select(['id', 'email', 'name'])
+        .where('email', '=', 'admin@quarry.example')
+        .executeTakeFirstOrThrow();
+      const temporary = 'saffron pebble lantern ridge';
+      await createUserByAdmin(
+        ctx,
+        {
+          name: 'Idris Penhallow',
+          email: 'idris.penhallow@example.com',
+          temporaryPassword: temporary,
+          isAdmin: false,
+        },
+        { ...admin, ip: null },
+        baseUrl,
+      );
+      await p.goto(`${baseUrl}/sign-in`);
+      await p.getByLabel('E-mail').fill('idris.penhallow@example.com');
+      await p.getByLabel('Password').fill(temporary);
+      await p.getByRole('button', { name: /sign in/i }).click();
+      await p.waitForURL(`${baseUrl}/account`);
+      await p.getByText('Choose your own password').waitFor();
+      // Another page is not offered until the password is changed.
+      await p.goto(`${baseUrl}/matters`);
+      await p.waitForURL(`${baseUrl}/account`);
+      // The shared rules refuse a guessable password before anything is sent.
+      await p.getByLabel('Current password').fill(temporary);
+      await p.getByLabel('New password', { exact: true }).fill('password1234');
+      await p.getByLabel(/repeat/i).fill('password1234');
+      await p.getByRole('button', { name: /change password/i }).click();
+      await p.getByText(/too easy to guess/).waitFor();
+      await p.getByLabel('New password', { exact: true }).fill('my own granite footpath');
+      await p.getByLabel(/repeat/i).fill('my own granite footpath');
+      await p.getByRole('button', { name: /change password/i }).click();
+      await expect.poll(() => p.getByText('Choose your own password').count()).toBe(0);
+      await p.goto(`${baseUrl}/matters`);
+      await p.getByRole('heading', { name: 'My matters' }).waitFor();
     },
   );
 });

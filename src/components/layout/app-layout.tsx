@@ -1,4 +1,4 @@
-import { NavLink, Outlet, useNavigate } from 'react-router';
+import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router';
 import { useMe } from '../../features/auth/api/get-me';
 import { useSignOut } from '../../features/auth/api/sign-out';
 import { cn } from '../../lib/cn';
@@ -19,6 +19,11 @@ export function AppLayout() {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const user = me.data?.user;
+  const { pathname } = useLocation();
+  // A temporary password set by a firm admin: the server refuses everything else until
+  // it is changed, so the only page offered is the password change.
+  if (me.data?.passwordChangeRequired && pathname !== '/account')
+    return <Navigate to="/account" replace />;
 
   return (
     <div className="flex min-h-screen flex-col">
