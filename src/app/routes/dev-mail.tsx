@@ -1,10 +1,10 @@
 import { Fragment, useState } from 'react';
-import { Link } from 'react-router';
-import { PublicLayout } from '../../components/layout/public-layout';
-import { Button, EmptyState, Notice, PageHeader, QueryBoundary } from '../../components/ui';
-import { type DevMailMessage, useDevMail } from '../../features/dev-mail/api/get-dev-mail';
-import { isApiError } from '../../lib/api-client';
-import { formatDateTime } from '../../lib/format';
+import { Link } from 'react-router-dom';
+import { PublicLayout } from '@/components/layout/public-layout';
+import { Button, EmptyState, Notice, PageHeader, QueryBoundary } from '@/components/ui';
+import { type DevMailMessage, useDevMail } from '@/features/dev-mail/api/get-dev-mail';
+import { isApiError } from '@/lib/api-client';
+import { formatDateTime } from '@/lib/format';
 
 /**
  * /dev/mail — the fake SMTP server's mailbox: open under `npm run dev`, for firm admins

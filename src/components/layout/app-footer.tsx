@@ -1,5 +1,5 @@
-import { useMe } from '../../features/auth/api/get-me';
-import { useInstance } from '../../features/dev-mail/api/get-instance';
+import { useMe } from '@/features/auth/api/get-me';
+import { useInstance } from '@/features/dev-mail/api/get-instance';
 
 export function AppFooter() {
   // The dev mailbox: anyone's under `npm run dev`, firm admins' in demo mode, else none.

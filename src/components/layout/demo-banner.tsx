@@ -1,4 +1,4 @@
-import { useInstance } from '../../features/dev-mail/api/get-instance';
+import { useInstance } from '@/features/dev-mail/api/get-instance';
 
 /** On every screen in demo mode: the demo accounts are open to anyone who read the README. */
 export function DemoBanner() {

@@ -1,5 +1,5 @@
-import { PASSWORD_MIN_LENGTH } from '../../../shared/limits';
-import { newPasswordProblem, type PasswordContext } from '../../../shared/password-policy';
+import { PASSWORD_MIN_LENGTH } from '@shared/limits';
+import { newPasswordProblem, type PasswordContext } from '@shared/password-policy';
 
 /**
  * The server's rules for a new password, checked before sending (the server checks

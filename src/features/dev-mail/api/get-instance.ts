@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { InstanceInfoResponse } from '../../../../shared/schemas/dev';
-import { api } from '../../../lib/api-client';
+import type { InstanceInfoResponse } from '@shared/schemas/dev';
+import { api } from '@/lib/api-client';
 
-export type { InstanceInfoResponse } from '../../../../shared/schemas/dev';
+export type { InstanceInfoResponse } from '@shared/schemas/dev';
 
 /** How this installation runs (demo mode, who may read the demo mailbox); public. */
 export function getInstance(signal?: AbortSignal): Promise<InstanceInfoResponse> {
