@@ -62,12 +62,14 @@ function ChangePasswordForm() {
   async function submit(event: FormEvent) {
     event.preventDefault();
     const problem =
-      newPassword === currentPassword
-        ? 'The new password must differ from the current one.'
-        : await checkNewPassword(newPassword, {
-            email: me.data?.user.email,
-            name: me.data?.user.name,
-          });
+      newPassword.length < PASSWORD_MIN_LENGTH
+        ? `Use at least ${PASSWORD_MIN_LENGTH} characters.`
+        : newPassword === currentPassword
+          ? 'The new password must differ from the current one.'
+          : await checkNewPassword(newPassword, {
+              email: me.data?.user.email,
+              name: me.data?.user.name,
+            });
     if (problem) {
       setLocalError(problem);
       return;
