@@ -9,7 +9,9 @@ import type {
   SetHoldReq,
 } from '../../shared/schemas/holds';
 import { recordAudit } from '../audit/record';
+import type { Transaction } from 'kysely';
 import type { Db } from '../db/database';
+import type { Database } from '../db/schema';
 import { findCustodianById } from '../documents/queries';
 import { conflict, notFound, validationError } from '../http/errors';
 import {
@@ -51,7 +53,9 @@ export function describeHold(row: {
   reason: string;
 }): string {
   const scope =
-    row.custodian_id === null ? 'the whole matter' : `custodian ${row.custodian_name ?? row.custodian_id}`;
+    row.custodian_id === null
+      ? 'the whole matter'
+      : `custodian ${row.custodian_name ?? row.custodian_id}`;
   return `legal hold #${row.id} on ${scope} (reason: ${row.reason})`;
 }
 
@@ -64,7 +68,7 @@ export async function readHolds(db: Db, matterId: number): Promise<HoldsResponse
  * custodians: deletion is impossible while it stands.
  */
 export async function assertNotOnHold(
-  db: Db,
+  db: Db | Transaction<Database>,
   matterId: number,
   custodianIds: (number | null)[],
   what: string,
@@ -92,7 +96,10 @@ export async function setHold(
     if (custodianId !== null) {
       const custodian = await findCustodianById(trx, matterId, custodianId);
       if (!custodian)
-        throw validationError('custodianId', `custodian ${custodianId} is not a custodian of this matter`);
+        throw validationError(
+          'custodianId',
+          `custodian ${custodianId} is not a custodian of this matter`,
+        );
       custodianName = custodian.name;
     }
     if (await findActiveHoldForScope(trx, matterId, custodianId))
@@ -102,7 +109,12 @@ export async function setHold(
           : `Custodian ${custodianName} is already under a legal hold.`,
         'custodianId',
       );
-    const holdId = await insertHold(trx, { matterId, custodianId, reason: body.reason, setBy: actor.id });
+    const holdId = await insertHold(trx, {
+      matterId,
+      custodianId,
+      reason: body.reason,
+      setBy: actor.id,
+    });
     await recordAudit(trx, {
       actorId: actor.id,
       actorEmail: actor.email,

@@ -47,7 +47,10 @@ export function referencesToDocuments(sqlite: SQLite.Database): Reference[] {
       on_delete: string;
     }[];
     const toDocuments = keys.filter(
-      (key) => key.table === 'documents' && key.on_delete !== 'SET NULL' && key.on_delete !== 'SET DEFAULT',
+      (key) =>
+        key.table === 'documents' &&
+        key.on_delete !== 'SET NULL' &&
+        key.on_delete !== 'SET DEFAULT',
     );
     if (toDocuments.length === 0 || DERIVED.has(table)) continue;
     found.push({
@@ -118,18 +121,20 @@ export function deleteFamily(sqlite: SQLite.Database, ids: number[]): void {
     const where = ref.columns
       .map((column) => `${quote(column)} IN (SELECT value FROM json_each(?))`)
       .join(' OR ');
-    sqlite.prepare(`DELETE FROM ${quote(ref.table)} WHERE ${where}`).run(...ref.columns.map(() => json));
+    sqlite
+      .prepare(`DELETE FROM ${quote(ref.table)} WHERE ${where}`)
+      .run(...ref.columns.map(() => json));
   }
   // Attachments first, so no row's parent disappears before it does.
   const del = sqlite.prepare('DELETE FROM documents WHERE id = ?');
   for (const id of [...ids].reverse()) del.run(id);
 }
 
-function insertRow(sqlite: SQLite.Database, table: string, row: Row): void {
+function insertRow(sqlite: SQLite.Database, table: string, row: Row, orIgnore = false): void {
   const columns = Object.keys(row);
   sqlite
     .prepare(
-      `INSERT INTO ${quote(table)} (${columns.map(quote).join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`,
+      `INSERT ${orIgnore ? 'OR IGNORE ' : ''}INTO ${quote(table)} (${columns.map(quote).join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`,
     )
     .run(...columns.map((column) => decode(row[column])));
 }
@@ -140,11 +145,14 @@ function insertRow(sqlite: SQLite.Database, table: string, row: Row): void {
  * gone) fails the restore; a related row that cannot (its code or grouping deleted since)
  * is skipped and counted. Call inside a transaction.
  */
-export function restoreFamily(sqlite: SQLite.Database, snapshot: FamilySnapshot): { skipped: number } {
+export function restoreFamily(
+  sqlite: SQLite.Database,
+  snapshot: FamilySnapshot,
+): { skipped: number } {
   for (const row of snapshot.documents) insertRow(sqlite, 'documents', row);
   let skipped = 0;
   const tables = new Set(
-    (sqlite.prepare("SELECT name FROM sqlite_master WHERE type = 'table'").pluck().all() as string[]),
+    sqlite.prepare("SELECT name FROM sqlite_master WHERE type = 'table'").pluck().all() as string[],
   );
   for (const { table, rows } of snapshot.related) {
     if (!tables.has(table)) {
@@ -155,7 +163,9 @@ export function restoreFamily(sqlite: SQLite.Database, snapshot: FamilySnapshot)
       // A savepoint per row: one refused row is undone alone, the rest of the restore stands.
       sqlite.exec('SAVEPOINT restore_row');
       try {
-        insertRow(sqlite, table, row);
+        // OR IGNORE: a row a trigger already put back (document_custodians) is not a loss;
+        // a foreign key that fails still throws.
+        insertRow(sqlite, table, row, true);
         sqlite.exec('RELEASE restore_row');
       } catch {
         sqlite.exec('ROLLBACK TO restore_row');
