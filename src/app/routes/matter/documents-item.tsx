@@ -1,12 +1,12 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-router';
-import { Button, ErrorPanel, Notice, PageHeader, SkeletonRows } from '../../../components/ui';
-import { DeleteDocumentDialog } from '../../../features/documents/components/delete-document-dialog';
-import { documentQueryOptions, useDocument } from '../../../features/documents/api/get-document';
-import { DocumentView } from '../../../features/documents/components/document-view';
-import { isApiError } from '../../../lib/api-client';
-import { useMatterPermission } from '../../../lib/authorization';
+import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-router-dom';
+import { Button, ErrorPanel, Notice, PageHeader, SkeletonRows } from '@/components/ui';
+import { documentQueryOptions, useDocument } from '@/features/documents/api/get-document';
+import { DeleteDocumentDialog } from '@/features/documents/components/delete-document-dialog';
+import { DocumentView } from '@/features/documents/components/document-view';
+import { isApiError } from '@/lib/api-client';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

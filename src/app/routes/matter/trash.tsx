@@ -1,9 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
-import type { LoaderFunctionArgs } from 'react-router';
-import { Notice, PageHeader } from '../../../components/ui';
-import { trashQueryOptions } from '../../../features/trash/api/get-trash';
-import { TrashList } from '../../../features/trash/components/trash-list';
-import { useMatterPermission } from '../../../lib/authorization';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { Notice, PageHeader } from '@/components/ui';
+import { trashQueryOptions } from '@/features/trash/api/get-trash';
+import { TrashList } from '@/features/trash/components/trash-list';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

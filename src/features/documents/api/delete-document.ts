@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { DeleteDocumentResponse } from '../../../../shared/schemas/trash';
-import { api } from '../../../lib/api-client';
-import { indexStateQueryKey } from '../../indexing/api/get-index-state';
-import { matterQueryOptions } from '../../matters/api/get-matter';
-import { trashQueryKey } from '../../trash/api/get-trash';
+import type { DeleteDocumentResponse } from '@shared/schemas/trash';
+import { api } from '@/lib/api-client';
+import { indexStateQueryKey } from '@/features/indexing/api/get-index-state';
+import { matterQueryOptions } from '@/features/matters/api/get-matter';
+import { trashQueryKey } from '@/features/trash/api/get-trash';
 import { documentsQueryKey } from './get-documents';
 
 /**

@@ -1,7 +1,7 @@
 import { useId, useState } from 'react';
-import { Button, Dialog, Notice, describeError } from '../../../components/ui';
-import { inputBase } from '../../../components/ui/text-field';
-import { fieldErrorOf, isApiError } from '../../../lib/api-client';
+import { Button, Dialog, Notice, describeError } from '@/components/ui';
+import { inputBase } from '@/components/ui/text-field';
+import { fieldErrorOf, isApiError } from '@/lib/api-client';
 import { useDeleteDocument } from '../api/delete-document';
 
 /**

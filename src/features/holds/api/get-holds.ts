@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { HoldsResponse } from '../../../../shared/schemas/holds';
-import { api } from '../../../lib/api-client';
+import type { HoldsResponse } from '@shared/schemas/holds';
+import { api } from '@/lib/api-client';
 
-export type { HoldsResponse, LegalHold } from '../../../../shared/schemas/holds';
+export type { HoldsResponse, LegalHold } from '@shared/schemas/holds';
 
 /** The matter's legal holds, active first. */
 export function getHolds(matterId: number, signal?: AbortSignal): Promise<HoldsResponse> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { HoldResponse } from '../../../../shared/schemas/holds';
-import { api } from '../../../lib/api-client';
+import type { HoldResponse } from '@shared/schemas/holds';
+import { api } from '@/lib/api-client';
 import { holdsQueryKey } from './get-holds';
 
 /** Releases a legal hold; the reason is kept with it and in the activity log. */

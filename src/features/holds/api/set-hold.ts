@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { HoldResponse, SetHoldReq } from '../../../../shared/schemas/holds';
-import { api } from '../../../lib/api-client';
+import type { HoldResponse, SetHoldReq } from '@shared/schemas/holds';
+import { api } from '@/lib/api-client';
 import { holdsQueryKey } from './get-holds';
 
 /** Sets a legal hold on the whole matter (custodianId null) or one custodian. */

@@ -1,17 +1,10 @@
 import { useId, useState } from 'react';
-import {
-  Button,
-  ErrorPanel,
-  Notice,
-  Select,
-  SkeletonRows,
-  describeError,
-} from '../../../components/ui';
-import { inputBase } from '../../../components/ui/text-field';
-import { fieldErrorOf } from '../../../lib/api-client';
-import { Can } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
-import { useCustodians } from '../../documents/api/get-custodians';
+import { Button, ErrorPanel, Notice, Select, SkeletonRows, describeError } from '@/components/ui';
+import { inputBase } from '@/components/ui/text-field';
+import { fieldErrorOf } from '@/lib/api-client';
+import { Can } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { useCustodians } from '@/features/documents/api/get-custodians';
 import { useHolds, type LegalHold } from '../api/get-holds';
 import { useReleaseHold } from '../api/release-hold';
 import { useSetHold } from '../api/set-hold';

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TrashResponse } from '../../../../shared/schemas/trash';
-import { api } from '../../../lib/api-client';
+import type { TrashResponse } from '@shared/schemas/trash';
+import { api } from '@/lib/api-client';
 
-export type { TrashItem, TrashResponse } from '../../../../shared/schemas/trash';
+export type { TrashItem, TrashResponse } from '@shared/schemas/trash';
 
 /** Deleted coded documents waiting to be restored or purged (matter leads). */
 export function getTrash(matterId: number, signal?: AbortSignal): Promise<TrashResponse> {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { PurgeResponse } from '../../../../shared/schemas/trash';
-import { api } from '../../../lib/api-client';
-import { indexStateQueryKey } from '../../indexing/api/get-index-state';
+import type { PurgeResponse } from '@shared/schemas/trash';
+import { api } from '@/lib/api-client';
+import { indexStateQueryKey } from '@/features/indexing/api/get-index-state';
 import { trashQueryKey } from './get-trash';
 
 /** Destroys a trashed document for good: text, indexes and (unless shared) the original. */

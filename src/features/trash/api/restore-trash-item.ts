@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { RestoreResponse } from '../../../../shared/schemas/trash';
-import { api } from '../../../lib/api-client';
-import { documentsQueryKey } from '../../documents/api/get-documents';
-import { indexStateQueryKey } from '../../indexing/api/get-index-state';
+import type { RestoreResponse } from '@shared/schemas/trash';
+import { api } from '@/lib/api-client';
+import { documentsQueryKey } from '@/features/documents/api/get-documents';
+import { indexStateQueryKey } from '@/features/indexing/api/get-index-state';
 import { trashQueryKey } from './get-trash';
 
 /** Puts a trashed document back with its attachments, codes and notes. */

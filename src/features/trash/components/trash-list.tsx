@@ -7,9 +7,9 @@ import {
   Notice,
   SkeletonRows,
   describeError,
-} from '../../../components/ui';
-import { Can } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
+} from '@/components/ui';
+import { Can } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
 import { useTrash, type TrashItem } from '../api/get-trash';
 import { usePurgeTrashItem } from '../api/purge-trash-item';
 import { useRestoreTrashItem } from '../api/restore-trash-item';
