@@ -81,15 +81,16 @@ export function DeleteDocumentDialog({
               busy={remove.isPending}
               data-testid="confirm-remove"
               onClick={() =>
-                remove.mutate(
-                  { docId: document.id, reason: reason.trim() || undefined },
-                  {
-                    onSuccess: (result) => {
-                      setReason('');
-                      onDeleted?.(result.outcome);
-                      onClose();
-                    },
+                // mutateAsync, not mutate's callbacks: the refetch after the deletion can
+                // unmount the page that holds this dialog (its document is gone), and
+                // TanStack Query drops mutate's callbacks for an unmounted component.
+                remove.mutateAsync({ docId: document.id, reason: reason.trim() || undefined }).then(
+                  (result) => {
+                    setReason('');
+                    onDeleted?.(result.outcome);
+                    onClose();
                   },
+                  () => undefined, // shown from remove.error
                 )
               }
             >
