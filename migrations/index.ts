@@ -9,6 +9,7 @@ import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
 import * as authHardening from './2026_12_04_1100_auth_hardening';
+import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -23,4 +24,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_0100_document_families': documentFamilies,
   '2026_12_04_0200_document_metadata': documentMetadata,
   '2026_12_04_1100_auth_hardening': authHardening,
+  '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
 };
