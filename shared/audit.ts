@@ -39,6 +39,14 @@ export const AUDIT_ACTIONS = [
   'saved_search.deleted',
   'export.results',
   'export.privilege_log',
+  'redaction.added',
+  'redaction.removed',
+  'production.created',
+  'production.family_resolved',
+  'production.build_requested',
+  'production.built',
+  'production.build_failed',
+  'production.downloaded',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -80,4 +88,12 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'saved_search.deleted': 'Deleted a saved search',
   'export.results': 'Exported search results',
   'export.privilege_log': 'Exported the privilege log',
+  'redaction.added': 'Marked a redaction',
+  'redaction.removed': 'Removed a redaction',
+  'production.created': 'Defined a production',
+  'production.family_resolved': 'Resolved a production family check',
+  'production.build_requested': 'Started building a production',
+  'production.built': 'Built a production',
+  'production.build_failed': 'A production build failed',
+  'production.downloaded': 'Downloaded a production',
 };

@@ -30,6 +30,8 @@ export const MATTER_PERMISSIONS = [
   'index.rebuild',
   'concepts.view',
   'concepts.label',
+  'documents.redact',
+  'productions.manage',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -54,6 +56,9 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'index.rebuild': ['lead'],
   'concepts.view': ['lead', 'attorney'],
   'concepts.label': ['lead'],
+  // Redactions are marked in review; they only take effect when a production burns them in.
+  'documents.redact': everyone,
+  'productions.manage': ['lead', 'attorney'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

@@ -289,7 +289,8 @@ function paint(p: Pixmap, x0: number, y0: number, x1: number, y1: number) {
   const right = Math.min(p.width, Math.ceil(x1));
   const top = Math.max(0, Math.floor(y0));
   const bottom = Math.min(p.height, Math.ceil(y1));
-  for (let y = top; y < bottom; y++) p.rgb.fill(0, (y * p.width + left) * 3, (y * p.width + right) * 3);
+  for (let y = top; y < bottom; y++)
+    p.rgb.fill(0, (y * p.width + left) * 3, (y * p.width + right) * 3);
 }
 
 const squash = (s: string) => s.replace(/\s+/g, '').toLowerCase();
@@ -304,7 +305,12 @@ interface PageItems {
 async function pageTextItems(file: string, scale: number): Promise<PageItems[]> {
   const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
   const data = new Uint8Array(await readFile(file));
-  const task = pdfjs.getDocument({ data, useSystemFonts: false, isEvalSupported: false });
+  const task = pdfjs.getDocument({
+    data,
+    useSystemFonts: false,
+    isEvalSupported: false,
+    verbosity: 0,
+  });
   const pdf = await task.promise;
   try {
     const pages: PageItems[] = [];
@@ -356,7 +362,11 @@ async function rasterisedWithRedactions(
     for (const target of task.redactStrings.map(squash).filter((s) => s.length > 0)) {
       let found = false;
       items.forEach((page, n) => {
-        for (let at = page.joined.indexOf(target); at >= 0; at = page.joined.indexOf(target, at + 1)) {
+        for (
+          let at = page.joined.indexOf(target);
+          at >= 0;
+          at = page.joined.indexOf(target, at + 1)
+        ) {
           found = true;
           for (let i = at; i < at + target.length; i++) cover[n].add(page.owner[i]);
         }

@@ -21,18 +21,23 @@ export class RenderPool {
   private start(): Promise<void> {
     if (this.ready) return this.ready;
     const worker = new Worker(WORKER_URL, { resourceLimits: { maxOldGenerationSizeMb: 1024 } });
+    // The worker never keeps the process alive on its own; the idle timer stops it.
+    worker.unref();
     this.worker = worker;
     this.ready = new Promise((resolve, reject) => {
       worker.once('error', reject);
-      worker.on('message', (message: { ready?: true; id?: number; result?: RenderResult; error?: string }) => {
-        if (message.ready) return resolve();
-        const waiting = this.pending.get(message.id!);
-        if (!waiting) return;
-        this.pending.delete(message.id!);
-        if (message.error !== undefined) waiting.reject(new Error(message.error));
-        else waiting.resolve(message.result!);
-        this.scheduleIdle();
-      });
+      worker.on(
+        'message',
+        (message: { ready?: true; id?: number; result?: RenderResult; error?: string }) => {
+          if (message.ready) return resolve();
+          const waiting = this.pending.get(message.id!);
+          if (!waiting) return;
+          this.pending.delete(message.id!);
+          if (message.error !== undefined) waiting.reject(new Error(message.error));
+          else waiting.resolve(message.result!);
+          this.scheduleIdle();
+        },
+      );
     });
     worker.on('error', (error) => this.fail(error));
     worker.on('exit', (code) => {

@@ -31,7 +31,7 @@ export function patternRegExp(pattern: string, kind: 'term' | 'format'): RegExp 
     return new RegExp(words.join('\\s+'), 'giu');
   }
   let source = '';
-  for (let i = 0; i < pattern.length; ) {
+  for (let i = 0; i < pattern.length;) {
     const ch = pattern[i];
     let run = 1;
     while (i + run < pattern.length && pattern[i + run] === ch) run += 1;

@@ -19,4 +19,6 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'index.rebuild': 'Rebuild the concept index',
   'concepts.view': 'Explore the concept space',
   'concepts.label': 'Label concepts',
+  'documents.redact': 'Mark redactions',
+  'productions.manage': 'Build and download productions',
 };
