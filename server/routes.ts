@@ -18,6 +18,8 @@ import { redactionRoutes } from './redactions/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { holdRoutes } from './holds/router';
+import { trashRoutes } from './trash/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -41,6 +43,8 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...holdRoutes,
+  ...trashRoutes,
   ...redactionRoutes,
   ...productionRoutes,
 ];

@@ -24,6 +24,7 @@ import * as matterLayout from './routes/matter/layout';
 import * as matterProductions from './routes/matter/productions';
 import * as matterReview from './routes/matter/review';
 import * as matterSearch from './routes/matter/search';
+import * as matterTrash from './routes/matter/trash';
 import * as matterUpload from './routes/matter/upload';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
@@ -145,6 +146,11 @@ export function createAppRouter(queryClient: QueryClient) {
               path: 'activity',
               loader: matterActivity.clientLoader(queryClient),
               Component: matterActivity.ActivityRoute,
+            },
+            {
+              path: 'trash',
+              loader: matterTrash.clientLoader(queryClient),
+              Component: matterTrash.TrashRoute,
             },
             { path: 'productions', Component: matterProductions.ProductionsRoute },
           ],
