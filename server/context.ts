@@ -8,6 +8,7 @@ import { ExtractionPool } from './extraction/extract';
 import { IndexService } from './indexing/service';
 import { buildIndexHandler } from './jobs/build-index';
 import { extractBatchHandler } from './jobs/extract-batch';
+import { buildProductionHandler } from './productions/build';
 import { JobRunner } from './jobs/runner';
 import { KeywordIndexCache } from './search/keyword-cache';
 import { BlobStore } from './storage/blob-store';
@@ -89,6 +90,7 @@ export async function createContext(config: Config): Promise<AppContext> {
     };
     jobs.register('extract-batch', extractBatchHandler(ctx));
     jobs.register('build-index', buildIndexHandler(ctx));
+    jobs.register('build-production', buildProductionHandler(ctx));
     await index.recoverInterrupted();
     await jobs.start();
     keyword.warmAll();

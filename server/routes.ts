@@ -13,6 +13,8 @@ import { invitationRoutes } from './invitations/router';
 import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
+import { productionRoutes } from './productions/router';
+import { redactionRoutes } from './redactions/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
@@ -43,4 +45,6 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...conceptRoutes,
   ...holdRoutes,
   ...trashRoutes,
+  ...redactionRoutes,
+  ...productionRoutes,
 ];

@@ -44,6 +44,14 @@ export const AUDIT_ACTIONS = [
   'document.purged',
   'hold.set',
   'hold.released',
+  'redaction.added',
+  'redaction.removed',
+  'production.created',
+  'production.family_resolved',
+  'production.build_requested',
+  'production.built',
+  'production.build_failed',
+  'production.downloaded',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -90,4 +98,12 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'document.purged': 'Destroyed a document from the trash',
   'hold.set': 'Set a legal hold',
   'hold.released': 'Released a legal hold',
+  'redaction.added': 'Marked a redaction',
+  'redaction.removed': 'Removed a redaction',
+  'production.created': 'Defined a production',
+  'production.family_resolved': 'Resolved a production family check',
+  'production.build_requested': 'Started building a production',
+  'production.built': 'Built a production',
+  'production.build_failed': 'A production build failed',
+  'production.downloaded': 'Downloaded a production',
 };

@@ -21,6 +21,7 @@ import * as matterDocument from './routes/matter/documents-item';
 import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
+import * as matterProductions from './routes/matter/productions';
 import * as matterReview from './routes/matter/review';
 import * as matterSearch from './routes/matter/search';
 import * as matterTrash from './routes/matter/trash';
@@ -151,6 +152,7 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterTrash.clientLoader(queryClient),
               Component: matterTrash.TrashRoute,
             },
+            { path: 'productions', Component: matterProductions.ProductionsRoute },
           ],
         },
         { path: 'account', Component: account.AccountRoute },
