@@ -114,3 +114,19 @@ export {
 } from './linalg/svd';
 export { KeywordIndex, keywordQueryTerms } from './search/keyword-index';
 export { frobeniusNormSq, nnzOf, type CsrMatrix, csrFromTriplets } from './sparse/csr';
+export {
+  parseQuery,
+  lexQuery,
+  positiveLeaves,
+  textLeafToFts,
+  shiftDay,
+  QuerySyntaxError,
+  QUERY_FIELDS,
+  type ParsedQuery,
+  type QueryNode,
+  type TextLeaf,
+  type MetaLeaf,
+  type DateLeaf,
+  type QueryField,
+} from './search/query-language';
+export { ftsRawTokens, porterStem } from './search/fts5-tokens';

@@ -117,6 +117,19 @@ export class KeywordIndex {
     return id;
   }
 
+  /** Indexed terms (stems) that start with `prefix`, at most `max` (for wildcard ranking). */
+  termsStartingWith(prefix: string, max: number): string[] {
+    const out: string[] = [];
+    if (prefix.length === 0) return out;
+    for (const term of this.termIds.keys()) {
+      if (term.startsWith(prefix)) {
+        out.push(term);
+        if (out.length >= max) break;
+      }
+    }
+    return out;
+  }
+
   get size(): number {
     return this.nAlive;
   }
