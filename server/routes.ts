@@ -16,6 +16,7 @@ import { memberRoutes } from './members/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { searchTermReportRoutes } from './search-term-report/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -39,4 +40,5 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...searchTermReportRoutes,
 ];

@@ -39,6 +39,8 @@ export const AUDIT_ACTIONS = [
   'saved_search.deleted',
   'export.results',
   'export.privilege_log',
+  'search.term_report',
+  'export.search_term_report',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -80,4 +82,6 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'saved_search.deleted': 'Deleted a saved search',
   'export.results': 'Exported search results',
   'export.privilege_log': 'Exported the privilege log',
+  'search.term_report': 'Ran a search term report',
+  'export.search_term_report': 'Exported a search term report',
 };
