@@ -65,6 +65,8 @@ export interface RankedSet {
   queryTerms: Set<string>;
   /** The query's nearest terms in the concept space (stems), best first. */
   nearest: { term: string; similarity: number }[];
+  /** The cosine the list was cut at (concept lists of plain queries), else undefined. */
+  conceptCutoff?: number;
 }
 
 function candidateMask(space: ConceptSpace, ids: number[]): Uint8Array {
@@ -322,5 +324,6 @@ export async function rankResultSet(
     queryVector: conceptUsable ? queryVector : null,
     queryTerms,
     nearest,
+    ...(mode === 'concept' && !booleanQuery ? { conceptCutoff: CONCEPT_MIN_COSINE } : {}),
   };
 }

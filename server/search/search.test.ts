@@ -62,7 +62,7 @@ describe('modes (Deerwester et al. 1990, section 4)', () => {
     expect(r.mode).toBe('concept');
     expect(new Set(keysOf(r.hits))).toEqual(new Set(['c1', 'c2', 'c3', 'c4', 'c5']));
     expect(r.total).toBe(5);
-    expect(r.unknownTerms).toEqual(['interact']);
+    expect(r.unknownTerms).toEqual(['interaction']);
     for (const hit of r.hits) {
       expect(hit.score).toBeGreaterThanOrEqual(0);
       expect(hit.score).toBeLessThanOrEqual(1);

@@ -199,4 +199,9 @@ export interface SearchResponse {
   notice?: string;
   /** Index version the concept part used; null for keyword-only. */
   indexVersion: number | null;
+  /**
+   * Set when the list is a concept ranking cut at a cosine (concept mode and "more like
+   * this", for plain words): the hits are the documents at or above it, not "matches".
+   */
+  conceptCutoff?: number;
 }
