@@ -48,7 +48,13 @@ export {
   type KeywordHit,
   type KeywordSearchOptions,
 } from './search/keyword';
-export { fuseScores, minMaxNormalise, type FusedHit, type Scored } from './search/fusion';
+export {
+  coverageWeight,
+  fuseScores,
+  minMaxNormalise,
+  type FusedHit,
+  type Scored,
+} from './search/fusion';
 export {
   search,
   prepareForSearch,

@@ -14,7 +14,7 @@
 //             a query (Deerwester et al. 1990, section 4), ranked like concept mode.
 import type { ConceptSpace } from '../engine/index';
 import { nearestTerms } from '../engine/index';
-import { fuseScores, type Scored } from '../engine/index';
+import { coverageWeight, fuseScores, type Scored } from '../engine/index';
 import { keywordQueryTerms } from '../engine/index';
 import { DEFAULT_HYBRID } from '../engine/index';
 import { topCosine } from '../engine/index';
@@ -224,10 +224,12 @@ export async function rankResultSet(
   }
 
   let keyword: Scored<number>[] = [];
+  let keywordCoverage = 1;
   if (mode !== 'concept') {
     let { terms } = keywordQueryTerms(input.query ?? '');
     const index = await ctx.keyword.indexFor(matterId);
     if (booleanQuery) terms = booleanQuery.rankTerms(index);
+    keywordCoverage = index.coverage(terms);
     if (terms.length === 0) {
       if (!booleanQuery) notices.push('The query has no searchable word.');
     } else {
@@ -257,7 +259,17 @@ export async function rankResultSet(
     const top = raw.length > 0 ? raw[0] : 1;
     bar = raw.map((s) => (top > 0 ? Math.max(0, Math.min(1, s / top)) : 1));
   } else {
-    const fused = fuseScores(keyword, concept, DEFAULT_HYBRID.keywordWeight).slice(0, cap);
+    // Each list weighed by the share of the query's words it can see (fusion.ts).
+    const seen = knownTerms.length + unknownTerms.length;
+    const weight = coverageWeight(
+      DEFAULT_HYBRID.keywordWeight,
+      keywordCoverage,
+      seen > 0 ? knownTerms.length / seen : 0,
+    );
+    const fused = fuseScores(keyword, concept, weight, {
+      conceptCoverage: seen > 0 ? knownTerms.length / seen : 0,
+      outsideConcept: (id) => space?.indexOf(id) === undefined,
+    }).slice(0, cap);
     ids = fused.map((h) => h.id);
     raw = fused.map((h) => h.score);
     bar = raw.map((s) => Math.max(0, Math.min(1, s)));

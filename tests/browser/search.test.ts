@@ -119,7 +119,8 @@ describeBrowser('search: concept search finds what keyword search misses', () =>
     page = await browser.context.newPage();
     const p = page;
     const matterId = quarry.seeded.matterId;
-    await signIn(p, quarry.baseUrl, ATTORNEY);
+    // The context is signed in already (the first test).
+
     await p.goto(`${quarry.baseUrl}/matters/${matterId}/search`);
     await p.getByTestId('search-page').waitFor();
     await p.getByTestId('mode-keyword').check();

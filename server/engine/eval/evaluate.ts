@@ -64,10 +64,12 @@ export function prepareCollection(
     docs.forEach((d, i) => index.add(i + 1, d.title, d.text));
     index.compact();
     const ids = docs.map((d) => d.id);
-    keyword = (query, limit) => {
+    const source: KeywordSource = (query, limit) => {
       const found = index.search(keywordQueryTerms(query).terms, { limit, k3: options.k3 });
       return found.ids.map((slot, r) => ({ id: ids[slot - 1] as DocId, score: found.scores[r] }));
     };
+    source.coverage = (query) => index.coverage(keywordQueryTerms(query).terms);
+    keyword = source;
   }
   return {
     space,

@@ -133,6 +133,24 @@ export class KeywordIndex {
     return id;
   }
 
+  /** Share of the distinct terms that some live document holds (what the query can find). */
+  coverage(terms: readonly string[]): number {
+    const distinct = [...new Set(terms)];
+    if (distinct.length === 0) return 0;
+    let held = 0;
+    for (const term of distinct) {
+      const id = this.termIds.get(term);
+      if (id === undefined) continue;
+      const p = this.postings[id];
+      if (
+        p.slots.some((slot) => this.alive[slot] === 1) ||
+        p.tailSlots.some((slot) => this.alive[slot] === 1)
+      )
+        held++;
+    }
+    return held / distinct.length;
+  }
+
   /** Indexed terms (stems) that start with `prefix`, at most `max` (for wildcard ranking). */
   termsStartingWith(prefix: string, max: number): string[] {
     const out: string[] = [];
