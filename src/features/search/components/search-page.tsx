@@ -1,6 +1,7 @@
 // The search page: query, filters, saved and recent searches, and the results.
 import type { RowSelectionState } from '@tanstack/react-table';
-import { useMemo, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import type { SearchFilters, SearchMode, SearchSort } from '@shared/schemas/search';
 import { ReviewCaution } from '@/components/review-caution';
@@ -19,6 +20,7 @@ import { useCustodians } from '@/features/documents/api/get-custodians';
 import { useDocument } from '@/features/documents/api/get-document';
 import { ExportButtons } from '@/features/exports/components/export-buttons';
 import { SavedSearchesPanel } from '@/features/saved-searches/components/saved-searches-panel';
+import { recentSearchesQueryKey } from '../api/get-recent-searches';
 import { useSearch } from '../api/run-search';
 import { HighlightLegend } from './highlight';
 import { QueryForm } from './query-form';
@@ -42,6 +44,12 @@ export function SearchPage({ matterId }: { matterId: number }) {
   const state = useMemo(() => parseSearchState(params), [params]);
   const request = useMemo(() => searchRequestFor(state), [state]);
   const search = useSearch(matterId, request);
+  // Each search run is a new recent search: refresh the panel when one completes.
+  const queryClient = useQueryClient();
+  useEffect(() => {
+    if (search.dataUpdatedAt > 0)
+      void queryClient.invalidateQueries({ queryKey: recentSearchesQueryKey(matterId) });
+  }, [search.dataUpdatedAt, matterId, queryClient]);
   const codes = useCodes(matterId);
   const custodians = useCustodians(matterId);
   const canCode = useMatterPermission('documents.code');
@@ -110,7 +118,7 @@ export function SearchPage({ matterId }: { matterId: number }) {
       />
       <ReviewCaution className="mb-4" compact />
       <div className="space-y-3">
-        <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_17rem]">
+        <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_17rem]">
           <section
             className="space-y-3 rounded-md border border-line bg-panel p-3"
             aria-label="Query and filters"
