@@ -16,6 +16,8 @@ import { memberRoutes } from './members/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { holdRoutes } from './holds/router';
+import { trashRoutes } from './trash/router';
 import { searchTermReportRoutes } from './search-term-report/router';
 
 /**
@@ -40,5 +42,7 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...holdRoutes,
+  ...trashRoutes,
   ...searchTermReportRoutes,
 ];

@@ -39,6 +39,11 @@ export const AUDIT_ACTIONS = [
   'saved_search.deleted',
   'export.results',
   'export.privilege_log',
+  'document.trashed',
+  'document.restored',
+  'document.purged',
+  'hold.set',
+  'hold.released',
   'search.term_report',
   'export.search_term_report',
 ] as const;
@@ -82,6 +87,11 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'saved_search.deleted': 'Deleted a saved search',
   'export.results': 'Exported search results',
   'export.privilege_log': 'Exported the privilege log',
+  'document.trashed': 'Moved a coded document to the trash',
+  'document.restored': 'Restored a document from the trash',
+  'document.purged': 'Destroyed a document from the trash',
+  'hold.set': 'Set a legal hold',
+  'hold.released': 'Released a legal hold',
   'search.term_report': 'Ran a search term report',
   'export.search_term_report': 'Exported a search term report',
 };

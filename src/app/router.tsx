@@ -23,6 +23,7 @@ import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
 import * as matterReview from './routes/matter/review';
 import * as matterSearch from './routes/matter/search';
+import * as matterTrash from './routes/matter/trash';
 import * as matterUpload from './routes/matter/upload';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
@@ -145,6 +146,11 @@ export function createAppRouter(queryClient: QueryClient) {
               path: 'activity',
               loader: matterActivity.clientLoader(queryClient),
               Component: matterActivity.ActivityRoute,
+            },
+            {
+              path: 'trash',
+              loader: matterTrash.clientLoader(queryClient),
+              Component: matterTrash.TrashRoute,
             },
           ],
         },

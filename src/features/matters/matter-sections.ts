@@ -75,6 +75,13 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     permission: 'audit.read',
     summary: 'Every sign-in, invitation and access change, newest first.',
   },
+  {
+    id: 'trash',
+    label: 'Trash',
+    path: 'trash',
+    permission: 'documents.delete',
+    summary: 'Deleted coded documents: restore them, or purge them for good.',
+  },
 ];
 
 export function matterSectionHref(matterId: number, section: MatterSection): string {
