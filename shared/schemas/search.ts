@@ -192,7 +192,7 @@ export interface SearchResponse {
   offset: number;
   sort: SearchSort;
   hits: SearchHit[];
-  /** Query terms the concept index knows / does not know (analysed forms). */
+  /** Query terms the concept index knows (analysed forms) / does not know (as typed). */
   knownTerms: string[];
   unknownTerms: string[];
   /** Plain-language notes: no known term, no index yet, result set capped, ... */
