@@ -10,6 +10,7 @@ import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
 import * as authHardening from './2026_12_04_1100_auth_hardening';
 import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
+import * as exactWordsIndex from './2026_12_04_1200_exact_words_index';
 import * as productions from './2026_12_04_1500_productions';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
@@ -26,5 +27,6 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_0200_document_metadata': documentMetadata,
   '2026_12_04_1100_auth_hardening': authHardening,
   '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
+  '2026_12_04_1200_exact_words_index': exactWordsIndex,
   '2026_12_04_1500_productions': productions,
 };

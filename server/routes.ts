@@ -20,6 +20,7 @@ import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
 import { holdRoutes } from './holds/router';
 import { trashRoutes } from './trash/router';
+import { searchTermReportRoutes } from './search-term-report/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -47,4 +48,5 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...trashRoutes,
   ...redactionRoutes,
   ...productionRoutes,
+  ...searchTermReportRoutes,
 ];

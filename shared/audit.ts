@@ -52,6 +52,8 @@ export const AUDIT_ACTIONS = [
   'production.built',
   'production.build_failed',
   'production.downloaded',
+  'search.term_report',
+  'export.search_term_report',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -106,4 +108,6 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'production.built': 'Built a production',
   'production.build_failed': 'A production build failed',
   'production.downloaded': 'Downloaded a production',
+  'search.term_report': 'Ran a search term report',
+  'export.search_term_report': 'Exported a search term report',
 };

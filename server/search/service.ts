@@ -11,6 +11,7 @@ import {
 import { recordAudit } from '../audit/record';
 import { appliedCodesOf } from '../codes/service';
 import type { AppContext } from '../context';
+import { analyzeWithSurface, isStopWord } from '../engine/index';
 import { topContributions } from './explain-hit';
 import {
   analyzedTerms,
@@ -30,6 +31,24 @@ export interface Actor {
 }
 
 const DEFAULT_SORT: SearchSort = { field: 'score', direction: 'desc' };
+
+/**
+ * Whether a term is worth showing as a reason or a refinement: not a number, not an
+ * English stop word, not a one- or two-letter token (common practice for term lists
+ * shown to people: such tokens carry little meaning on their own).
+ */
+export function isShownTerm(word: string): boolean {
+  const w = word.toLowerCase();
+  return [...w].length > 2 && !/^[\p{N}.,'’-]+$/u.test(w) && !isStopWord(w);
+}
+
+/** Stems of the query mapped back to the words as the person typed them. */
+function typedForms(query: string, stems: string[]): string[] {
+  const surfaceOf = new Map<string, string>();
+  for (const { term, surface } of analyzeWithSurface(query))
+    if (!surfaceOf.has(term)) surfaceOf.set(term, surface);
+  return stems.map((s) => surfaceOf.get(s) ?? s);
+}
 const TOP_TERMS = 6;
 
 /** The page's document ids in the requested order. */
@@ -107,6 +126,7 @@ async function explainPage(
           .slice(0, TOP_TERMS)
           .map(([term, n]) => ({ term, weight: n / total }));
       }
+      contributions = contributions.filter((c) => isShownTerm(c.term));
       return { id, i, body, spans, contributions };
     });
   // Surface forms from the page's texts are only consulted for terms the index has no
@@ -121,10 +141,9 @@ async function explainPage(
     prepared.some((p) => p.contributions.some((c) => !labelled(c.term)))
   )
     for (const p of prepared) collectSurfaces(p.spans, surfaces);
-  const nearestQueryTerms = ranked.nearest.map((t) => ({
-    term: surfaceOf(t.term, surfaces, space),
-    similarity: t.similarity,
-  }));
+  const nearestQueryTerms = ranked.nearest
+    .map((t) => ({ term: surfaceOf(t.term, surfaces, space), similarity: t.similarity }))
+    .filter((t) => isShownTerm(t.term));
   return prepared.map(({ id, i, body, spans, contributions }) => {
     const doc = docById.get(id)!;
     // Concept marks: the query's nearest terms and the document's own contributing terms.
@@ -144,10 +163,9 @@ async function explainPage(
       codes: (codes.get(id) ?? []).map((c) => ({ id: c.id, name: c.name })),
       snippet: buildSnippet(body, spans, marks),
       why: {
-        topTerms: contributions.map((c) => ({
-          term: surfaceOf(c.term, surfaces, space),
-          weight: c.weight,
-        })),
+        topTerms: contributions
+          .map((c) => ({ term: surfaceOf(c.term, surfaces, space), weight: c.weight }))
+          .filter((c) => isShownTerm(c.term)),
         nearestQueryTerms,
       },
       duplicateOf: ranked.duplicateOf[i],
@@ -207,9 +225,14 @@ export async function runSearch(
     sort,
     hits,
     knownTerms: ranked.knownTerms,
-    unknownTerms: ranked.unknownTerms,
+    // As typed ("interaction"), not as the index's stems ("interact").
+    unknownTerms: typedForms(
+      req.query ?? (req.similarTo && 'passage' in req.similarTo ? req.similarTo.passage : ''),
+      ranked.unknownTerms,
+    ),
     ...(ranked.notices.length > 0 ? { notice: ranked.notices.join(' ') } : {}),
     indexVersion: ranked.indexVersion,
+    ...(ranked.conceptCutoff !== undefined ? { conceptCutoff: ranked.conceptCutoff } : {}),
   };
 }
 

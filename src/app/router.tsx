@@ -89,6 +89,7 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterSearch.clientLoader(queryClient),
               Component: matterSearch.SearchRoute,
             },
+            { path: 'search/term-report', Component: matterSearch.TermReportRoute },
             {
               path: 'review/:docId',
               loader: matterReview.clientLoader(queryClient),
