@@ -23,6 +23,7 @@ const B = 0.75;
 const MIN_IDF = 1e-6;
 const TF_MAX = 0xffff;
 const SURFACE_CACHE_LIMIT = 1_000_000;
+const SURFACE_KEY_MAX = 256;
 
 /**
  * The query phrases of a user's text, as toFtsMatchExpression (keyword.ts) builds its
@@ -145,7 +146,8 @@ export class KeywordIndex {
         const term = ftsTerm(surface);
         id = term.length === 0 ? -1 : this.termIdOf(term);
         if (surfaces.size >= SURFACE_CACHE_LIMIT) surfaces.clear();
-        surfaces.set(surface, id);
+        // A giant token (a run of one character) is not worth keeping as a key.
+        if (surface.length <= SURFACE_KEY_MAX) surfaces.set(surface, id);
       }
       if (id < 0) return;
       length++;
