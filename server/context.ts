@@ -91,6 +91,7 @@ export async function createContext(config: Config): Promise<AppContext> {
     jobs.register('build-index', buildIndexHandler(ctx));
     await index.recoverInterrupted();
     await jobs.start();
+    index.startRecovery();
     keyword.warmAll();
     return ctx;
   } catch (error) {

@@ -1,6 +1,7 @@
 // The concept engine's public surface, for the server, the worker thread and the CLI.
 // Pure TypeScript over typed arrays; no Express, no server imports.
 export { analyze, tokenize, ANALYZER_VERSION } from './text/analyzer';
+export { PORTER_MAX_BYTES, TOKEN_MAX_BYTES } from './text/token-limits';
 export { buildTermDocumentMatrix, type TermDocumentMatrix } from './index/term-document';
 export {
   globalWeights,
