@@ -15,6 +15,7 @@ import { topContributions } from './explain-hit';
 import {
   analyzedTerms,
   buildSnippet,
+  HIT_WINDOW_CHARS,
   collectSurfaces,
   surfaceOf,
   termSpans,
@@ -68,6 +69,7 @@ async function explainPage(
     textsByIds(
       ctx.db,
       ids.map((id) => ranked.duplicateOf[position.get(id)!] ?? id),
+      HIT_WINDOW_CHARS,
     ),
     appliedCodesOf(ctx.db, ids),
   ]);
@@ -83,7 +85,7 @@ async function explainPage(
       const sourceId = ranked.duplicateOf[i] ?? id;
       const t = textById.get(sourceId);
       const body = t?.body ?? '';
-      const spans = termSpans(body);
+      const spans = termSpans(body, HIT_WINDOW_CHARS);
       let contributions: { term: string; weight: number }[] = [];
       const index = space?.indexOf(sourceId);
       if (space && ranked.mode !== 'keyword' && ranked.queryVector && index !== undefined) {
@@ -91,7 +93,7 @@ async function explainPage(
           space,
           ranked.queryVector,
           index,
-          analyzedTerms(t?.title ?? '', body, spans),
+          analyzedTerms(t?.title ?? '', body, spans, HIT_WINDOW_CHARS),
           TOP_TERMS,
           termDots,
         ).map((c) => ({ term: c.term, weight: c.contribution }));
@@ -107,7 +109,7 @@ async function explainPage(
           .slice(0, TOP_TERMS)
           .map(([term, n]) => ({ term, weight: n / total }));
       }
-      return { id, i, body, spans, contributions };
+      return { id, i, body, bodyLength: t?.body_length ?? 0, spans, contributions };
     });
   // Surface forms from the page's texts are only consulted for terms the index has no
   // label for (surfaceOf), so they are collected only when such a term is shown.
@@ -125,7 +127,7 @@ async function explainPage(
     term: surfaceOf(t.term, surfaces, space),
     similarity: t.similarity,
   }));
-  return prepared.map(({ id, i, body, spans, contributions }) => {
+  return prepared.map(({ id, i, body, bodyLength, spans, contributions }) => {
     const doc = docById.get(id)!;
     // Concept marks: the query's nearest terms and the document's own contributing terms.
     const concept = new Set(nearestSet);
@@ -142,7 +144,7 @@ async function explainPage(
       rawScore: ranked.raw[i],
       rank: i + 1,
       codes: (codes.get(id) ?? []).map((c) => ({ id: c.id, name: c.name })),
-      snippet: buildSnippet(body, spans, marks),
+      snippet: buildSnippet(body, spans, marks, bodyLength),
       why: {
         topTerms: contributions.map((c) => ({
           term: surfaceOf(c.term, surfaces, space),
