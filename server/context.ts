@@ -11,6 +11,7 @@ import { buildIndexHandler } from './jobs/build-index';
 import { extractBatchHandler } from './jobs/extract-batch';
 import { JobRunner } from './jobs/runner';
 import { KeywordIndexCache } from './search/keyword-cache';
+import { conceptGroupingHandler } from './concepts/grouping-job';
 import { BlobStore } from './storage/blob-store';
 import { sweepStaleTempDirs } from './storage/temp-dirs';
 
@@ -89,6 +90,7 @@ export async function createContext(config: Config): Promise<AppContext> {
     };
     jobs.register('extract-batch', extractBatchHandler(ctx));
     jobs.register('build-index', buildIndexHandler(ctx));
+    jobs.register('concept-grouping', conceptGroupingHandler(config.dbFile));
     await index.recoverInterrupted();
     await jobs.start();
     index.startRecovery();
