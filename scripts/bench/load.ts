@@ -124,12 +124,20 @@ async function main() {
     };
     const headers = { 'content-type': 'application/json', origin: baseUrl, cookie: attorney };
     for (let w = 0; w < QUERIES.length * MODES.length; w++) {
-      const res = await fetch(`${baseUrl}${searchPath}`, { method: 'POST', headers, body: nextBody() });
+      const res = await fetch(`${baseUrl}${searchPath}`, {
+        method: 'POST',
+        headers,
+        body: nextBody(),
+      });
       if (res.status !== 200) throw new Error(`warm-up search: ${res.status} ${await res.text()}`);
       await res.arrayBuffer();
     }
     const documents = (
-      await getJson<{ total: number }>(baseUrl, `/api/matters/${matter.id}/documents?pageSize=1`, attorney)
+      await getJson<{ total: number }>(
+        baseUrl,
+        `/api/matters/${matter.id}/documents?pageSize=1`,
+        attorney,
+      )
     ).total;
 
     // The signed-in user's check, one request at a time every 100 ms while the load runs.
@@ -139,10 +147,14 @@ async function main() {
     const probe = (async () => {
       while (probing) {
         const s = performance.now();
-        const res = await fetch(`${baseUrl}/api/auth/me`, { headers: { cookie: signedIn } });
-        await res.arrayBuffer();
+        try {
+          const res = await fetch(`${baseUrl}/api/auth/me`, { headers: { cookie: signedIn } });
+          await res.arrayBuffer();
+          if (res.status !== 200) meErrors++;
+        } catch {
+          meErrors++;
+        }
         me.push(performance.now() - s);
-        if (res.status !== 200) meErrors++;
         await new Promise((r) => setTimeout(r, 100));
       }
     })();
@@ -205,11 +217,11 @@ async function main() {
       '## Load: 200 concurrent searches',
       '',
       `\`npm run bench:load\` (scripts/bench/load.ts), ${figures.date.slice(0, 10)}: the demo matter (${documents} documents, seeded by`,
-      '`npm start`\'s demo step) served by `node --import tsx server/main.ts` in a child process on 127.0.0.1; autocannon in the',
+      "`npm start`'s demo step) served by `node --import tsx server/main.ts` in a child process on 127.0.0.1; autocannon in the",
       `bench process keeps ${CONNECTIONS} connections busy for ${SECONDS} s with \`POST /api/matters/:matterId/search\` (${QUERIES.length} reviewer`,
       'queries in hybrid, concept and keyword mode in turn, 50 hits per page with snippets and why-it-matched, each audited),',
       'while another signed-in user calls `GET /api/auth/me` every 100 ms, one request at a time. Latency is per request,',
-      'from autocannon\'s send to the full response (so it includes the wait behind the other connections).',
+      "from autocannon's send to the full response (so it includes the wait behind the other connections).",
       '',
       `Machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}); load average (1 / 5 / 15 min) ${loads(loadAtStart)} when this script`,
       `started, ${loads(loadBefore)} when the load began and ${loads(loadAfter)} at its end (other work shares this machine).`,
