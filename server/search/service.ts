@@ -11,14 +11,14 @@ import {
 import { recordAudit } from '../audit/record';
 import { appliedCodesOf } from '../codes/service';
 import type { AppContext } from '../context';
-import { topContributions } from './explain-hit';
+import { topContributionsOfWeighted } from './explain-hit';
+import { HitTextCache } from './hit-texts';
+import { Gate, SEARCHES_IN_FLIGHT } from './search-gate';
 import {
-  analyzedTerms,
   buildSnippet,
   HIT_WINDOW_CHARS,
   collectSurfaces,
   surfaceOf,
-  termSpans,
   type MarkTerms,
 } from './highlight';
 import { documentsByIds, recentSearchEvents, sortedPage, textsByIds } from './queries';
@@ -31,6 +31,20 @@ export interface Actor {
 }
 
 const DEFAULT_SORT: SearchSort = { field: 'score', direction: 'desc' };
+
+const gates = new WeakMap<AppContext, Gate>();
+function gateOf(ctx: AppContext): Gate {
+  let gate = gates.get(ctx);
+  if (!gate) gates.set(ctx, (gate = new Gate(SEARCHES_IN_FLIGHT)));
+  return gate;
+}
+
+const hitTextCaches = new WeakMap<AppContext, HitTextCache>();
+function hitTextsOf(ctx: AppContext): HitTextCache {
+  let cache = hitTextCaches.get(ctx);
+  if (!cache) hitTextCaches.set(ctx, (cache = new HitTextCache(HIT_WINDOW_CHARS)));
+  return cache;
+}
 const TOP_TERMS = 6;
 
 /** The page's document ids in the requested order. */
@@ -78,22 +92,24 @@ async function explainPage(
   const space = ranked.space;
   const nearestSet = new Set(ranked.nearest.map((t) => t.term));
   const termDots = new Map<number, number>();
+  const hitTexts = hitTextsOf(ctx);
   const prepared = ids
     .filter((id) => docById.has(id))
     .map((id) => {
       const i = position.get(id)!;
       const sourceId = ranked.duplicateOf[i] ?? id;
       const t = textById.get(sourceId);
-      const body = t?.body ?? '';
-      const spans = termSpans(body, HIT_WINDOW_CHARS);
+      const hitText = hitTexts.get(sourceId, t?.title ?? '', t?.body ?? '');
+      const body = hitText.body;
+      const spans = hitText.spans;
       let contributions: { term: string; weight: number }[] = [];
       const index = space?.indexOf(sourceId);
       if (space && ranked.mode !== 'keyword' && ranked.queryVector && index !== undefined) {
-        contributions = topContributions(
+        contributions = topContributionsOfWeighted(
           space,
           ranked.queryVector,
           index,
-          analyzedTerms(t?.title ?? '', body, spans, HIT_WINDOW_CHARS),
+          hitText.weighted(space),
           TOP_TERMS,
           termDots,
         ).map((c) => ({ term: c.term, weight: c.contribution }));
@@ -159,7 +175,16 @@ async function explainPage(
 }
 
 /** POST .../search (and GET .../documents/:docId/similar): one page, audited as search.run. */
-export async function runSearch(
+export function runSearch(
+  ctx: AppContext,
+  matterId: number,
+  req: SearchParsedReq,
+  actor: Actor,
+): Promise<SearchResponse> {
+  return gateOf(ctx).run(() => searchNow(ctx, matterId, req, actor));
+}
+
+async function searchNow(
   ctx: AppContext,
   matterId: number,
   req: SearchParsedReq,
