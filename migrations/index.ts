@@ -7,6 +7,7 @@ import * as matterIndexSettings from './2026_12_02_0500_matter_index_settings';
 import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 import * as documentFamilies from './2026_12_04_0100_document_families';
+import * as documentMetadata from './2026_12_04_0200_document_metadata';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -19,4 +20,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0600_search_filter_index': searchFilterIndex,
   '2026_12_02_0700_keyword_changes': keywordChanges,
   '2026_12_04_0100_document_families': documentFamilies,
+  '2026_12_04_0200_document_metadata': documentMetadata,
 };

@@ -99,6 +99,23 @@ export interface DocumentsTable {
   parent_id: number | null;
   /** The top-level document of this one's family (its own id when top-level); set by a trigger. */
   family_id: Generated<number | null>;
+  // E-mail header fields kept apart (RFC 5322 3.6), display text "Name <addr>, ...".
+  email_from: Generated<string>;
+  email_to: Generated<string>;
+  email_cc: Generated<string>;
+  email_bcc: Generated<string>;
+  message_id: string | null;
+  in_reply_to: string | null;
+  /** The References header as written (space-separated message ids). */
+  email_references: Generated<string>;
+  received_at: string | null;
+  file_created_at: string | null;
+  file_modified_at: string | null;
+  last_author: Generated<string>;
+  /** The top-level item's date (an attachment sorts with its e-mail). */
+  family_date: string | null;
+  /** 1 when the text came from OCR. */
+  ocr: Generated<number>;
   control_number: string;
   original_name: string;
   original_path: Generated<string>;
@@ -115,6 +132,12 @@ export interface DocumentsTable {
   extract_error: string | null;
   duplicate_of: number | null;
   created_at: string;
+}
+
+/** Every custodian who held a copy of a document (its own, plus those of de-duplicated copies). */
+export interface DocumentCustodiansTable {
+  document_id: number;
+  custodian_id: number;
 }
 
 export interface DocumentTextsTable {
@@ -275,6 +298,7 @@ export interface Database {
   upload_batches: UploadBatchesTable;
   documents: DocumentsTable;
   document_texts: DocumentTextsTable;
+  document_custodians: DocumentCustodiansTable;
   documents_fts: DocumentsFtsTable;
   keyword_changes: KeywordChangesTable;
   jobs: JobsTable;

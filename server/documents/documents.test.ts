@@ -185,6 +185,24 @@ describe('upload to searchable', () => {
       ...batch.files.map((f) => f.id),
       batch.files[4].id,
     ]);
+    // Metadata (migration 2026_12_04_0200): the attachment's family date is its e-mail's
+    // date, and each document lists the custodian it was loaded for.
+    const email = await t.ctx.db
+      .selectFrom('documents')
+      .select(['sent_at', 'family_date'])
+      .where('family_id', '=', batch.files[4].id)
+      .orderBy('id')
+      .execute();
+    expect(email[0].sent_at).toBe('2021-03-02T10:00:00.000Z');
+    expect(email.map((e) => e.family_date)).toEqual([email[0].sent_at, email[0].sent_at]);
+    const held = await t.ctx.db
+      .selectFrom('document_custodians')
+      .innerJoin('documents', 'documents.id', 'document_custodians.document_id')
+      .select(['document_custodians.document_id', 'document_custodians.custodian_id'])
+      .where('documents.matter_id', '=', matter.id)
+      .execute();
+    expect(held.length).toBe(6);
+    expect(new Set(held.map((h) => h.custodian_id))).toEqual(new Set([batch.custodian!.id]));
     expect(docs.every((d) => d.status === 'extracted')).toBe(true);
     expect(docs.every((d) => d.indexState === 'indexed')).toBe(true);
     expect(docs[0].author).toBe('Ann Miller');

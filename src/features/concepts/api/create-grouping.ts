@@ -3,10 +3,10 @@ import type {
   CreateGroupingReq,
   CreateGroupingResponse,
   GroupingResponse,
-} from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
-import { getJob } from '../../jobs/api/get-job';
-import { isJobActive } from '../../jobs/api/get-matter-jobs';
+} from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
+import { getJob } from '@/features/jobs/api/get-job';
+import { isJobActive } from '@/features/jobs/api/get-matter-jobs';
 import { groupingQueryOptions } from './get-grouping';
 import { groupingsQueryKey } from './get-groupings';
 import { conceptsPath } from './keys';
