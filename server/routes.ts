@@ -13,9 +13,13 @@ import { invitationRoutes } from './invitations/router';
 import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
+import { productionRoutes } from './productions/router';
+import { redactionRoutes } from './redactions/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { holdRoutes } from './holds/router';
+import { trashRoutes } from './trash/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -39,4 +43,8 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...holdRoutes,
+  ...trashRoutes,
+  ...redactionRoutes,
+  ...productionRoutes,
 ];

@@ -19,4 +19,9 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'index.rebuild': 'Rebuild the concept index',
   'concepts.view': 'Explore the concept space',
   'concepts.label': 'Label concepts',
+  'holds.manage': 'Set and release legal holds',
+  'documents.restore': 'Restore deleted documents from the trash',
+  'documents.purge': 'Destroy deleted documents for good',
+  'documents.redact': 'Mark redactions',
+  'productions.manage': 'Build and download productions',
 };
