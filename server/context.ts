@@ -11,6 +11,7 @@ import { extractBatchHandler } from './jobs/extract-batch';
 import { buildProductionHandler } from './productions/build';
 import { JobRunner } from './jobs/runner';
 import { KeywordIndexCache } from './search/keyword-cache';
+import { conceptGroupingHandler } from './concepts/grouping-job';
 import { BlobStore } from './storage/blob-store';
 import { ensurePrivateDir } from './storage/file-modes';
 import { sweepStaleTempDirs } from './storage/temp-dirs';
@@ -91,8 +92,10 @@ export async function createContext(config: Config): Promise<AppContext> {
     jobs.register('extract-batch', extractBatchHandler(ctx));
     jobs.register('build-index', buildIndexHandler(ctx));
     jobs.register('build-production', buildProductionHandler(ctx));
+    jobs.register('concept-grouping', conceptGroupingHandler(config.dbFile));
     await index.recoverInterrupted();
     await jobs.start();
+    index.startRecovery();
     keyword.warmAll();
     return ctx;
   } catch (error) {

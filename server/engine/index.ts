@@ -7,6 +7,7 @@ export {
   tokenize,
   ANALYZER_VERSION,
 } from './text/analyzer';
+export { PORTER_MAX_BYTES, TOKEN_MAX_BYTES } from './text/token-limits';
 export { buildTermDocumentMatrix, type TermDocumentMatrix } from './index/term-document';
 export {
   globalWeights,

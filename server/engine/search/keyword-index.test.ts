@@ -246,3 +246,55 @@ describe('fts5 tokens', () => {
     expect(ftsRawTokens('Running CAFÉS')).toEqual(['running', 'cafes']);
   });
 });
+
+describe('long tokens, as FTS5 treats them', () => {
+  // SQLite FTS5 itself is the reference: its porter tokenizer leaves tokens over 64 bytes
+  // unstemmed, and it keeps the first 32,768 bytes of a token (FTS5_MAX_TOKEN_SIZE).
+  const long = [
+    { title: '', body: `${'a'.repeat(53)}connections and ${'a'.repeat(54)}connections` },
+    { title: 'S'.repeat(8 * 1024 * 1024), body: 'subject line only' },
+    { title: '', body: `${'1'.repeat(100_000)} digits` },
+    { title: '', body: `${'é'.repeat(20_000)} ${'Ω'.repeat(17_000)}` },
+  ];
+
+  // A term shown by its head and length, so a failure prints a readable difference.
+  const brief = (terms: string[]) =>
+    terms.map((t) => (t.length > 70 ? `${t.slice(0, 12)}…(${t.length} chars)` : t)).sort();
+
+  it('stems, cuts and counts them into the terms FTS5 indexes', () => {
+    const db = ftsDatabase(long.map((d, i) => ({ rowid: i + 1, ...d })));
+    const fts = db.prepare('SELECT doc, term FROM temp.fts_instances').all() as {
+      doc: number;
+      term: string;
+    }[];
+    long.forEach((d, i) =>
+      expect(brief([...ftsTokens(d.title), ...ftsTokens(d.body)]), `document ${i + 1}`).toEqual(
+        brief(fts.filter((r) => r.doc === i + 1).map((r) => r.term)),
+      ),
+    );
+    db.close();
+  });
+
+  it('matches and scores a giant query token as FTS5 does', () => {
+    const docs = long.map((d, i) => ({ rowid: i + 1, ...d }));
+    const db = ftsDatabase(docs);
+    const index = new KeywordIndex();
+    for (const d of docs) index.add(d.rowid, d.title, d.body);
+    const statement = db.prepare(
+      `SELECT rowid, -bm25(documents_fts) AS score FROM documents_fts
+        WHERE documents_fts MATCH ? ORDER BY bm25(documents_fts), rowid`,
+    );
+    for (const query of ['S'.repeat(40_000), '1'.repeat(33_000), `${'a'.repeat(54)}connections`]) {
+      const { words, terms } = keywordQueryTerms(query);
+      const reference = statement.all(words.map((w) => `"${w}"`).join(' OR ')) as {
+        rowid: number;
+        score: number;
+      }[];
+      expect(reference.length).toBe(1);
+      const ours = index.search(terms, { limit: 10 });
+      expect(ours.ids, brief(words).join(' ')).toEqual(reference.map((r) => r.rowid));
+      expect(ours.scores[0]).toBeCloseTo(reference[0].score, 12);
+    }
+    db.close();
+  });
+});

@@ -35,6 +35,7 @@ const SURFACE_CACHE_LIMIT = 1_000_000;
  * (docs/RETRIEVAL.md): keyword MAP 0.3121 at k3 = 0, 0.3132 at 2, 0.3110 at 7.
  */
 export const DEFAULT_K3 = 2;
+const SURFACE_KEY_MAX = 256;
 
 /**
  * The query phrases of a user's text, as toFtsMatchExpression (keyword.ts) builds its
@@ -192,7 +193,8 @@ export class KeywordIndex {
         const term = ftsTerm(surface);
         id = term.length === 0 ? -1 : this.termIdOf(term);
         if (surfaces.size >= SURFACE_CACHE_LIMIT) surfaces.clear();
-        surfaces.set(surface, id);
+        // A giant token (a run of one character) is not worth keeping as a key.
+        if (surface.length <= SURFACE_KEY_MAX) surfaces.set(surface, id);
       }
       if (id < 0) return;
       length++;
