@@ -39,6 +39,9 @@ export const AUDIT_ACTIONS = [
   'saved_search.deleted',
   'export.results',
   'export.privilege_log',
+  'password.added',
+  'password.removed',
+  'near_duplicates.threshold_changed',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -80,4 +83,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'saved_search.deleted': 'Deleted a saved search',
   'export.results': 'Exported search results',
   'export.privilege_log': 'Exported the privilege log',
+  'password.added': 'Added a password to the password list',
+  'password.removed': 'Removed a password from the password list',
+  'near_duplicates.threshold_changed': 'Changed the near-duplicate threshold',
 };

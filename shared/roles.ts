@@ -30,6 +30,8 @@ export const MATTER_PERMISSIONS = [
   'index.rebuild',
   'concepts.view',
   'concepts.label',
+  'passwords.manage',
+  'relationships.manage',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -54,6 +56,8 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'index.rebuild': ['lead'],
   'concepts.view': ['lead', 'attorney'],
   'concepts.label': ['lead'],
+  'passwords.manage': ['lead'],
+  'relationships.manage': ['lead'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

@@ -67,8 +67,12 @@ function nextDay(date: string): string {
 export function filterCondition(filters: SearchFilters): RawBuilder<SqlBool> {
   const parts: RawBuilder<unknown>[] = [sql`1`];
   const list = (values: readonly (string | number)[]) => sql.join(values.map((v) => sql`${v}`));
+  // Every custodian who held a copy (document_custodians), so a copy suppressed as a
+  // duplicate still counts for its custodian.
   if (filters.custodianIds?.length)
-    parts.push(sql`d.custodian_id IN (${list(filters.custodianIds)})`);
+    parts.push(
+      sql`d.id IN (SELECT dc.document_id FROM document_custodians dc WHERE dc.custodian_id IN (${list(filters.custodianIds)}))`,
+    );
   if (filters.dateFrom) parts.push(sql`d.sent_at >= ${filters.dateFrom}`);
   if (filters.dateTo) parts.push(sql`d.sent_at < ${nextDay(filters.dateTo)}`);
   if (filters.docTypes?.length) parts.push(sql`d.doc_type IN (${list(filters.docTypes)})`);

@@ -19,4 +19,6 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'index.rebuild': 'Rebuild the concept index',
   'concepts.view': 'Explore the concept space',
   'concepts.label': 'Label concepts',
+  'passwords.manage': 'Keep the password list for encrypted files',
+  'relationships.manage': 'Set the near-duplicate threshold',
 };
