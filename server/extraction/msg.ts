@@ -76,6 +76,15 @@ export async function extractMsg(filePath: string): Promise<Fields> {
     throw new Refused('not a valid Outlook message');
   }
   if (data.error || data.dataType !== 'msg') throw new Refused('not a valid Outlook message');
+  // A compound file with none of a message's properties (MS-OXMSG §2.1) is some other file.
+  const empty =
+    data.subject === undefined &&
+    data.body === undefined &&
+    data.senderName === undefined &&
+    data.senderEmail === undefined &&
+    !data.recipients?.length &&
+    !data.attachments?.length;
+  if (empty) throw new Refused('not a valid Outlook message');
   const attachments: ChildFile[] = [];
   for (const [index, attachment] of (data.attachments ?? []).entries()) {
     try {
