@@ -185,6 +185,13 @@ export async function documentsByIds(db: Executor, matterId: number, ids: number
           'd.parent_id',
           'd.duplicate_of',
           'c.name as custodian_name',
+          // Family, thread, near-duplicate and OCR fields for result columns (issue 13).
+          'd.family_id',
+          'd.thread_id',
+          'd.inclusive',
+          'd.near_dup_group_id',
+          'd.near_dup_similarity',
+          'd.ocr',
         ])
         // Unary + keeps SQLite from reading the matter through a matter_id index (every
         // document of a 100,000-document matter, 11 ms) instead of the page's rowids.
