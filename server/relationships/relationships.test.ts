@@ -3,6 +3,7 @@
 // e-mail collected twice with different bytes is one document, every custodian who held a
 // copy is kept and found by the custodian filters (document list and search), and a reply
 // (RFC 5322 §3.6.4 In-Reply-To) joins its thread.
+import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeEml, makePdf, makeText } from '../../corpus-demo/render';
 import type {
@@ -178,6 +179,27 @@ describe('families, duplicates and all custodians', () => {
     // Cy's own e-mail (about the same specification) is not Ben's.
     const filing = (await list()).find((d) => d.name === 'filing.eml')!;
     expect(hits.map((h) => h.documentId)).not.toContain(filing.id);
+  });
+
+  it('the results CSV carries the e-mail fields, the family and every custodian', async () => {
+    const res = await lead
+      .get(`/api/matters/${matter.id}/exports/results.csv`)
+      .query({ query: 'moisture', mode: 'keyword' })
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (c: Buffer) => chunks.push(c));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    const [header, ...rows] = parse(res.body as Buffer, { bom: true }) as string[][];
+    const row = rows.find((r) => r[1] === email.controlNumber)!;
+    const cell = (name: string) => row[header.indexOf(name)];
+    expect(cell('From')).toBe('Ann Miller <ann@mill.example>');
+    expect(cell('Cc')).toBe('Cy Clerk <cy@bakery.example>');
+    expect(cell('Message-ID')).toBe('<spec-1@mill.example>');
+    expect(cell('Family ID')).toBe(email.controlNumber);
+    expect(cell('All custodians')).toBe('Ann Miller; Ben Baker');
   });
 });
 
