@@ -26,7 +26,15 @@ function run(command: string, args: string[], timeoutMs: number): Promise<RunRes
     execFile(
       command,
       args,
-      { timeout: timeoutMs, killSignal: 'SIGKILL', maxBuffer: 64 * 1024 * 1024, encoding: 'utf8' },
+      {
+        timeout: timeoutMs,
+        killSignal: 'SIGKILL',
+        maxBuffer: 64 * 1024 * 1024,
+        encoding: 'utf8',
+        // One thread per page: tesseract's OpenMP threads slow it down on a shared 2-core
+        // machine (tesseract's documentation advises OMP_THREAD_LIMIT=1 when running jobs side by side).
+        env: { ...process.env, OMP_THREAD_LIMIT: '1' },
+      },
       (error, stdout) => {
         const code = (error as NodeJS.ErrnoException | null)?.code;
         resolve({

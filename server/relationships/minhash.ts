@@ -62,16 +62,20 @@ export function jaccard(a: Set<number>, b: Set<number>): number {
   return common / (a.size + b.size - common);
 }
 
-// Hash function i is fmix32(x XOR seed_i): independent-looking 32-bit hashes from one family
-// (common practice in place of true random permutations).
-const SEEDS = Uint32Array.from({ length: HASHES }, (_, i) => fmix32((i + 1) * 0x9e3779b9));
-
-/** MinHash signature: for each hash function, the least hash over the shingles. */
+/**
+ * MinHash signature: for each hash function, the least hash over the shingles. Hash i of
+ * a shingle x is h1(x) + i * h2(x) mod 2^32 with h1, h2 two independent mixes of x
+ * (Kirsch and Mitzenmacher, "Less hashing, same performance", 2006: two hashes simulate
+ * k), one multiply-add per function instead of a full mix; the accuracy test in
+ * minhash.test.ts checks the estimates against exact Jaccard.
+ */
 export function signature(set: Set<number>, hashes = HASHES): Uint32Array {
   const sig = new Uint32Array(hashes).fill(0xffffffff);
   for (const x of set) {
+    const h1 = fmix32(x);
+    const h2 = fmix32((x ^ 0x5bd1e995) >>> 0) | 1;
     for (let i = 0; i < hashes; i += 1) {
-      const h = fmix32((x ^ SEEDS[i]) >>> 0);
+      const h = (h1 + Math.imul(i, h2)) >>> 0;
       if (h < sig[i]) sig[i] = h;
     }
   }
