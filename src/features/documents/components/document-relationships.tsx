@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import type { DocumentListItem } from '../../../../shared/schemas/documents';
 import type { NearDuplicateMemberRef } from '../../../../shared/schemas/relationships';
 import { Badge, Button, ErrorPanel, SkeletonRows } from '../../../components/ui';
