@@ -40,17 +40,24 @@ function fmix32(h: number): number {
   return h >>> 0;
 }
 
-/** The set of shingle hashes of a text (a short text is one shingle of all its words). */
+/**
+ * The set of shingle hashes of a text (a short text is one shingle of all its words). Each
+ * word is hashed once; a shingle's hash combines its words' hashes in order (no string
+ * per shingle is built).
+ */
 export function shingles(text: string, size = SHINGLE_WORDS): Set<number> {
   const list = words(text);
   const out = new Set<number>();
   if (list.length === 0) return out;
-  if (list.length < size) {
-    out.add(fnv1a(list.join(' ')));
-    return out;
+  const hashed = list.map(fnv1a);
+  const count = Math.max(1, list.length - size + 1);
+  const span = Math.min(size, list.length);
+  for (let i = 0; i < count; i += 1) {
+    let h = 0x811c9dc5;
+    for (let j = 0; j < span; j += 1)
+      h = fmix32((h ^ hashed[i + j]) >>> 0) ^ Math.imul(j + 1, 0x9e3779b9);
+    out.add(h >>> 0);
   }
-  for (let i = 0; i + size <= list.length; i += 1)
-    out.add(fnv1a(list.slice(i, i + size).join(' ')));
   return out;
 }
 
