@@ -8,7 +8,10 @@ import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
+import * as authHardening from './2026_12_04_1100_auth_hardening';
+import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
 import * as documentRelationships from './2026_12_04_1300_document_relationships';
+import * as productions from './2026_12_04_1500_productions';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -22,5 +25,8 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0700_keyword_changes': keywordChanges,
   '2026_12_04_0100_document_families': documentFamilies,
   '2026_12_04_0200_document_metadata': documentMetadata,
+  '2026_12_04_1100_auth_hardening': authHardening,
+  '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
   '2026_12_04_1300_document_relationships': documentRelationships,
+  '2026_12_04_1500_productions': productions,
 };

@@ -19,6 +19,11 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'index.rebuild': 'Rebuild the concept index',
   'concepts.view': 'Explore the concept space',
   'concepts.label': 'Label concepts',
+  'holds.manage': 'Set and release legal holds',
+  'documents.restore': 'Restore deleted documents from the trash',
+  'documents.purge': 'Destroy deleted documents for good',
+  'documents.redact': 'Mark redactions',
+  'productions.manage': 'Build and download productions',
   'passwords.manage': 'Keep the password list for encrypted files',
   'relationships.manage': 'Set the near-duplicate threshold',
 };
