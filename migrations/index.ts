@@ -11,6 +11,7 @@ import * as documentMetadata from './2026_12_04_0200_document_metadata';
 import * as authHardening from './2026_12_04_1100_auth_hardening';
 import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
 import * as exactWordsIndex from './2026_12_04_1200_exact_words_index';
+import * as documentRelationships from './2026_12_04_1300_document_relationships';
 import * as productions from './2026_12_04_1500_productions';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
@@ -28,5 +29,6 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_1100_auth_hardening': authHardening,
   '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
   '2026_12_04_1200_exact_words_index': exactWordsIndex,
+  '2026_12_04_1300_document_relationships': documentRelationships,
   '2026_12_04_1500_productions': productions,
 };

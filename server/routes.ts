@@ -21,6 +21,8 @@ import { searchRoutes } from './search/router';
 import { holdRoutes } from './holds/router';
 import { trashRoutes } from './trash/router';
 import { searchTermReportRoutes } from './search-term-report/router';
+import { relationshipRoutes } from './relationships/router';
+import { passwordRoutes } from './passwords/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -49,4 +51,6 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...redactionRoutes,
   ...productionRoutes,
   ...searchTermReportRoutes,
+  ...relationshipRoutes,
+  ...passwordRoutes,
 ];

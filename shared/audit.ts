@@ -54,6 +54,9 @@ export const AUDIT_ACTIONS = [
   'production.downloaded',
   'search.term_report',
   'export.search_term_report',
+  'password.added',
+  'password.removed',
+  'near_duplicates.threshold_changed',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -110,4 +113,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'production.downloaded': 'Downloaded a production',
   'search.term_report': 'Ran a search term report',
   'export.search_term_report': 'Exported a search term report',
+  'password.added': 'Added a password to the password list',
+  'password.removed': 'Removed a password from the password list',
+  'near_duplicates.threshold_changed': 'Changed the near-duplicate threshold',
 };

@@ -35,6 +35,8 @@ export const MATTER_PERMISSIONS = [
   'documents.purge',
   'documents.redact',
   'productions.manage',
+  'passwords.manage',
+  'relationships.manage',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -67,6 +69,8 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   // Redactions are marked in review; they only take effect when a production burns them in.
   'documents.redact': everyone,
   'productions.manage': ['lead', 'attorney'],
+  'passwords.manage': ['lead'],
+  'relationships.manage': ['lead'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

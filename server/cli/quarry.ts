@@ -17,7 +17,8 @@ const commands: Record<string, Command> = {
     load: () => import('./commands/eval'),
   },
   import: {
-    summary: 'import --matter "<name>" [--custodian "<name>"] <folder>   bulk load a folder tree',
+    summary:
+      'import --matter "<name>" [--create --lead <email> [--prefix ABC]] [--custodian "<name>"] <folder>   bulk load a folder tree',
     load: () => import('./commands/import'),
   },
   backup: {

@@ -44,6 +44,8 @@ export interface MattersTable {
   index_weighting: Generated<string | null>;
   created_by: string | null;
   created_at: string;
+  /** Jaccard resemblance at which documents are near-duplicates (default 0.8). */
+  near_dup_threshold: Generated<number>;
 }
 
 export interface MatterMembersTable {
@@ -137,6 +139,34 @@ export interface DocumentsTable {
   extract_status: Generated<ExtractStatus>;
   extract_error: string | null;
   duplicate_of: number | null;
+  created_at: string;
+  /** SHA-256 of an e-mail's normalised header fields and body (migration 2026_12_04_1300). */
+  email_hash: string | null;
+  /** The thread's first message (RFC 5322 3.6.4 threads); null for documents not e-mail. */
+  thread_id: number | null;
+  thread_parent_id: number | null;
+  /** 1: an inclusive message of its thread; 0: contained in a later reply; null: not e-mail. */
+  inclusive: number | null;
+  /** The near-duplicate group's principal document; null when in no group. */
+  near_dup_group_id: number | null;
+  near_dup_similarity: number | null;
+}
+
+/** A document's MinHash signature (little-endian Uint32 per hash function). */
+export interface DocumentMinhashTable {
+  document_id: number;
+  signature: Uint8Array;
+}
+
+/** A matter's passwords for encrypted files: AES-256-GCM ciphertext, never returned. */
+export interface MatterPasswordsTable {
+  id: Generated<number>;
+  matter_id: number;
+  label: Generated<string>;
+  ciphertext: Uint8Array;
+  iv: Uint8Array;
+  tag: Uint8Array;
+  created_by: string | null;
   created_at: string;
 }
 
@@ -413,6 +443,8 @@ export interface Database {
   documents: DocumentsTable;
   document_texts: DocumentTextsTable;
   document_custodians: DocumentCustodiansTable;
+  document_minhash: DocumentMinhashTable;
+  matter_passwords: MatterPasswordsTable;
   documents_fts: DocumentsFtsTable;
   keyword_changes: KeywordChangesTable;
   jobs: JobsTable;

@@ -1,15 +1,22 @@
 // Extraction of loaded documents: text and metadata into documents and document_texts
 // (whose triggers fill documents_fts), and e-mail attachments as child documents.
+import { createHash } from 'node:crypto';
 import path from 'node:path';
 import { recordAudit } from '../audit/record';
 import type { AppContext } from '../context';
 import type { DocumentRow, ExtractStatus } from '../db/schema';
 import type { ChildFile, ExtractSuccess } from '../extraction/types';
+import { matterPasswords } from '../passwords/service';
+import { refreshRelationships } from '../relationships/service';
+import { signatureOfText, signatureToBytes } from '../relationships/minhash';
+import { addressesOf } from '../relationships/threads';
 import { controlSequenceOf, formatControlNumber } from './control-numbers';
 import {
+  addCustodiansOfCopy,
   findDocumentsByIds,
-  findFirstBySha,
+  findFirstByEmailHash,
   findMatterForLoad,
+  inheritCustodians,
   insertDocument,
   replaceDocumentText,
   setExtractStatus,
@@ -27,6 +34,28 @@ function recipientsText(result: ExtractSuccess): string {
   return [to && `To: ${to}`, cc && `Cc: ${cc}`].filter(Boolean).join('; ');
 }
 
+/**
+ * SHA-256 of an e-mail's normalised header fields and body: addresses lower-cased and
+ * sorted per field, the subject and body with spacing collapsed, the date to the second.
+ * The same message collected from two mailboxes (different bytes: other Received lines,
+ * another folder) hashes the same. Message-ID is left out: stores rewrite or drop it.
+ */
+export function emailHashOf(result: ExtractSuccess): string | null {
+  if (!result.email) return null;
+  const list = (display: string) => addressesOf(display).sort().join(',');
+  const squash = (text: string | null) => (text ?? '').replace(/\s+/g, ' ').trim();
+  const parts = [
+    list(result.email.from),
+    list(result.email.to),
+    list(result.email.cc),
+    list(result.email.bcc),
+    squash(result.title).toLowerCase(),
+    result.sentAt ? result.sentAt.slice(0, 19) : '',
+    squash(result.text),
+  ];
+  return createHash('sha256').update(parts.join('\u0000')).digest('hex');
+}
+
 async function recordFailure(ctx: AppContext, doc: DocumentRow, reason: string): Promise<void> {
   await ctx.db.transaction().execute(async (trx) => {
     await setExtractStatus(trx, doc.id, 'failed', reason);
@@ -40,12 +69,19 @@ async function recordFailure(ctx: AppContext, doc: DocumentRow, reason: string):
   });
 }
 
-/** Stores attachments and records them as children of the e-mail, deduplicated by SHA-256. */
+/**
+ * Stores attachments and records them as children of the e-mail. De-duplication treats the
+ * family as the unit: an attachment is never suppressed as a copy of a document in another
+ * family (it stays with its parent); a family whose top-level item is a copy is suppressed
+ * whole, since a duplicate is not extracted and so gets no children. Beyond the nesting
+ * limit children are kept and recorded as failed, never dropped.
+ */
 async function addChildren(
   ctx: AppContext,
   parent: DocumentRow,
   children: ChildFile[],
   reserved: number[],
+  depth: number,
 ): Promise<number[]> {
   if (children.length === 0) return [];
   const blobs: { sha256: string; size: number }[] = [];
@@ -60,8 +96,8 @@ async function addChildren(
     for (const [index, child] of children.entries()) {
       const seq = index < reserved.length ? reserved[index] : firstExtra + index - reserved.length;
       const blob = blobs[index];
-      const first = await findFirstBySha(trx, parent.matter_id, blob.sha256);
-      const status: ExtractStatus = first ? 'duplicate' : 'pending';
+      const tooDeep = depth > ctx.config.upload.maxArchiveDepth;
+      const status: ExtractStatus = tooDeep ? 'failed' : 'pending';
       const name = path.posix.basename(child.name) || `attachment-${index + 1}`;
       const id = await insertDocument(trx, {
         matter_id: parent.matter_id,
@@ -78,10 +114,11 @@ async function addChildren(
         sent_at: parent.sent_at,
         page_count: null,
         extract_status: status,
-        extract_error: null,
-        duplicate_of: first?.id ?? null,
+        extract_error: tooDeep ? 'archive nesting too deep' : null,
+        duplicate_of: null,
         created_at: now,
       });
+      await inheritCustodians(trx, parent.id, id);
       if (status === 'pending') pending.push(id);
     }
     return pending;
@@ -97,6 +134,7 @@ async function extractOne(
   doc: DocumentRow,
   reserved: number[],
   outcome: ExtractOutcome,
+  depth = 1,
 ): Promise<void> {
   if (doc.extract_status !== 'pending' && doc.extract_status !== 'extracting') return;
   await setExtractStatus(ctx.db, doc.id, 'extracting');
@@ -104,6 +142,7 @@ async function extractOne(
   try {
     result = await ctx.extraction.extract(ctx.blobs.pathOf(doc.sha256), doc.original_name, {
       maxFileBytes: ctx.config.upload.maxFileBytes,
+      passwords: await matterPasswords(ctx, doc.matter_id),
     });
   } catch (error) {
     ctx.logger.error({ err: error, documentId: doc.id }, 'extraction threw');
@@ -115,6 +154,14 @@ async function extractOne(
     return;
   }
   const title = result.title ?? '';
+  const emailHash = emailHashOf(result);
+  const email = result.email;
+  // A top-level e-mail already held (same normalised headers and body, other bytes) is a
+  // duplicate of the first copy; its custodian joins the first copy's custodians.
+  const firstCopy =
+    emailHash && doc.parent_id === null
+      ? await findFirstByEmailHash(ctx.db, doc.matter_id, emailHash, doc.id)
+      : undefined;
   await ctx.db.transaction().execute(async (trx) => {
     await trx
       .updateTable('documents')
@@ -126,22 +173,52 @@ async function extractOne(
         page_count: result.pageCount,
         doc_type: result.kind,
         mime: result.mime,
-        extract_status: 'extracted',
+        extract_status: firstCopy ? 'duplicate' : 'extracted',
         extract_error: null,
+        duplicate_of: firstCopy?.id ?? null,
+        email_from: email?.from ?? '',
+        email_to: email?.to ?? '',
+        email_cc: email?.cc ?? '',
+        email_bcc: email?.bcc ?? '',
+        message_id: email?.messageId ?? null,
+        in_reply_to: email?.inReplyTo ?? null,
+        email_references: email?.references ?? '',
+        received_at: email?.receivedAt ?? null,
+        file_created_at: result.createdAt,
+        file_modified_at: result.modifiedAt,
+        last_author: result.lastAuthor ?? '',
+        ocr: result.ocr ? 1 : 0,
+        email_hash: emailHash,
       })
       .where('id', '=', doc.id)
       .execute();
+    if (firstCopy) {
+      await addCustodiansOfCopy(trx, firstCopy.id, doc.id);
+      return;
+    }
     await replaceDocumentText(trx, doc.id, title, result.text);
+    await trx
+      .insertInto('document_minhash')
+      .values({
+        document_id: doc.id,
+        signature: signatureToBytes(signatureOfText(`${title}\n${result.text}`)),
+      })
+      .onConflict((oc) =>
+        oc.column('document_id').doUpdateSet((eb) => ({ signature: eb.ref('excluded.signature') })),
+      )
+      .execute();
   });
+  if (firstCopy) return;
   outcome.extracted.push(doc.id);
   const childIds = await addChildren(
     ctx,
     { ...doc, sent_at: result.sentAt },
     result.attachments,
     reserved,
+    depth,
   );
   for (const child of await findDocumentsByIds(ctx.db, childIds)) {
-    await extractOne(ctx, child, [], outcome);
+    await extractOne(ctx, child, [], outcome, depth + 1);
   }
 }
 
@@ -170,6 +247,14 @@ export async function extractDocuments(
       ctx.logger.error({ err: error, documentId: doc.id }, 'could not extract a document');
       await recordFailure(ctx, doc, 'file could not be read').catch(() => undefined);
       outcome.failed.push(doc.id);
+    }
+  }
+  // Threads and near-duplicate groups follow the matter's documents.
+  for (const matterId of new Set(docs.map((d) => d.matter_id))) {
+    try {
+      await refreshRelationships(ctx, matterId);
+    } catch (error) {
+      ctx.logger.error({ err: error, matterId }, 'could not refresh threads and near-duplicates');
     }
   }
   await options.onProgress?.(docs.length, docs.length, '');

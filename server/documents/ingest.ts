@@ -13,13 +13,14 @@ import type {
 import { recordAudit } from '../audit/record';
 import type { AppContext } from '../context';
 import type { ExtractStatus } from '../db/schema';
-import { expandArchive } from '../extraction/archive';
+import { expandContainer } from '../extraction/containers';
 import { sniffFile } from '../extraction/sniff';
-import type { FailureReason, FileKind } from '../extraction/types';
+import { isContainerKind, type FailureReason, type FileKind } from '../extraction/types';
 import { matterNotFound, payloadTooLarge } from '../http/errors';
 import { makeTempDir, removeTempDir } from '../storage/temp-dirs';
 import { formatControlNumber } from './control-numbers';
 import {
+  addCustodiansOfCopy,
   findCustodianByName,
   findFirstBySha,
   findMatterForLoad,
@@ -103,70 +104,63 @@ async function prepare(
 ): Promise<{ prepared: PreparedFile[]; skipped: SkippedFile[] }> {
   const prepared: PreparedFile[] = [];
   const skipped: SkippedFile[] = [];
-  for (const file of files) {
-    const name = path.posix.basename(file.relativePath);
-    const sniffed = await sniffFile(file.filePath, name);
-    if (sniffed.kind === 'zip') {
+  const { upload } = ctx.config;
+  const limits = {
+    maxArchiveEntries: upload.maxArchiveEntries,
+    maxArchiveUnpackedBytes: upload.maxArchiveUnpackedBytes,
+    maxArchiveDepth: upload.maxArchiveDepth,
+    maxFileBytes: upload.maxFileBytes,
+  };
+  // Containers (zip, MBOX, PST) are unpacked here; a mailbox inside a zip is unpacked too,
+  // within the nesting limit.
+  const add = async (sourcePath: string, relativePath: string, depth: number): Promise<void> => {
+    const name = path.posix.basename(relativePath);
+    const sniffed = await sniffFile(sourcePath, name);
+    if (isContainerKind(sniffed.kind) && depth < limits.maxArchiveDepth + 1) {
       const target = await makeTempDir(ctx.config.dataDir, 'expand');
       scratch.push(target);
-      const { upload } = ctx.config;
-      const expanded = await expandArchive(file.filePath, target, {
-        maxArchiveEntries: upload.maxArchiveEntries,
-        maxArchiveUnpackedBytes: upload.maxArchiveUnpackedBytes,
-        maxArchiveDepth: upload.maxArchiveDepth,
-        maxFileBytes: upload.maxFileBytes,
-      });
+      const expanded = await expandContainer(sniffed.kind, sourcePath, target, limits);
       if (!expanded.ok) {
         const limit = ARCHIVE_LIMIT_SETTINGS[expanded.reason];
         if (limit) {
           throw payloadTooLarge(
             limit[0],
-            `${file.relativePath}: ${expanded.reason}, ${expanded.detail}; the limit is ${limit[1](ctx)}`,
+            `${relativePath}: ${expanded.reason}, ${expanded.detail}; the limit is ${limit[1](ctx)}`,
           );
         }
+        // Kept, listed and counted as an exception with its reason (never dropped).
         prepared.push({
-          sourcePath: file.filePath,
+          sourcePath,
           name,
-          relativePath: file.relativePath,
-          kind: 'zip',
+          relativePath,
+          kind: sniffed.kind,
           mime: sniffed.mime,
           failure: expanded.reason,
           attachmentsExpected: 0,
         });
-        continue;
+        return;
       }
       for (const entry of expanded.skipped)
-        skipped.push({ path: `${file.relativePath}/${entry.relativePath}`, reason: entry.reason });
+        skipped.push({ path: `${relativePath}/${entry.relativePath}`, reason: entry.reason });
       const entries = [...expanded.files].sort((a, b) =>
         a.relativePath < b.relativePath ? -1 : a.relativePath > b.relativePath ? 1 : 0,
       );
-      for (const entry of entries) {
-        const entryName = path.posix.basename(entry.relativePath);
-        const entrySniff = await sniffFile(entry.absolutePath, entryName);
-        prepared.push({
-          sourcePath: entry.absolutePath,
-          name: entryName,
-          relativePath: `${file.relativePath}/${entry.relativePath}`,
-          kind: entrySniff.kind,
-          mime: entrySniff.mime,
-          failure: null,
-          attachmentsExpected:
-            entrySniff.kind === 'email' ? await countDeclaredAttachments(entry.absolutePath) : 0,
-        });
-      }
-      continue;
+      for (const entry of entries)
+        await add(entry.absolutePath, `${relativePath}/${entry.relativePath}`, depth + 1);
+      return;
     }
     prepared.push({
-      sourcePath: file.filePath,
+      sourcePath,
       name,
-      relativePath: file.relativePath,
+      relativePath,
       kind: sniffed.kind,
       mime: sniffed.mime,
-      failure: null,
+      failure: isContainerKind(sniffed.kind) ? 'archive nesting too deep' : null,
       attachmentsExpected:
-        sniffed.kind === 'email' ? await countDeclaredAttachments(file.filePath) : 0,
+        sniffed.kind === 'email' ? await countDeclaredAttachments(sourcePath) : 0,
     });
-  }
+  };
+  for (const file of files) await add(file.filePath, file.relativePath, 1);
   return { prepared, skipped };
 }
 
@@ -256,6 +250,8 @@ export async function loadFiles(
           created_at: now,
         });
         if (!first) firstOfSha.set(sha256, { id, controlNumber });
+        // The copy's custodian is kept on the first copy (and its family): "all custodians".
+        else await addCustodiansOfCopy(trx, first.id, id);
         if (status === 'pending') toExtract.push(id);
         // Numbers reserved for a duplicate's attachments are simply never used (never reused).
         if (file.attachmentsExpected > 0 && status === 'pending') {

@@ -1,4 +1,4 @@
-import { sql, type Kysely, type Transaction } from 'kysely';
+import { sql, type Kysely, type RawBuilder, type SqlBool, type Transaction } from 'kysely';
 import type { Database, DocumentRow, ExtractStatus, NewDocumentRow } from '../db/schema';
 
 type Executor = Kysely<Database> | Transaction<Database>;
@@ -181,8 +181,96 @@ export function listIndexableTexts(db: Executor, matterId: number, onlyIds?: num
 
 export interface DocumentFilter {
   status?: ExtractStatus;
+  /** Matches every document the custodian held a copy of (document_custodians). */
   custodian?: number;
   batch?: number;
+  inclusiveOnly?: boolean;
+  nearDuplicateGroup?: number;
+  thread?: number;
+}
+
+/** The filter as one SQL condition on `d` (documents). */
+function filterSql(filter: DocumentFilter): RawBuilder<SqlBool> {
+  const parts: RawBuilder<unknown>[] = [sql`1`];
+  if (filter.status) parts.push(sql`d.extract_status = ${filter.status}`);
+  if (filter.custodian)
+    parts.push(
+      sql`EXISTS (SELECT 1 FROM document_custodians dc WHERE dc.document_id = d.id AND dc.custodian_id = ${filter.custodian})`,
+    );
+  if (filter.batch) parts.push(sql`d.batch_id = ${filter.batch}`);
+  // Inclusive only: e-mails that are not inclusive drop out; other documents stay.
+  if (filter.inclusiveOnly) parts.push(sql`(d.inclusive IS NULL OR d.inclusive = 1)`);
+  if (filter.nearDuplicateGroup)
+    parts.push(sql`d.near_dup_group_id = ${filter.nearDuplicateGroup}`);
+  if (filter.thread) parts.push(sql`d.thread_id = ${filter.thread}`);
+  return sql<SqlBool>`(${sql.join(parts, sql` AND `)})`;
+}
+
+/** Custodians of every copy of the given documents (document_custodians), by document. */
+export async function allCustodiansOf(
+  db: Executor,
+  ids: number[],
+): Promise<Map<number, { id: number; name: string }[]>> {
+  const out = new Map<number, { id: number; name: string }[]>();
+  for (let start = 0; start < ids.length; start += 900) {
+    const rows = await db
+      .selectFrom('document_custodians as dc')
+      .innerJoin('custodians as c', 'c.id', 'dc.custodian_id')
+      .select(['dc.document_id', 'c.id', 'c.name'])
+      .where('dc.document_id', 'in', ids.slice(start, start + 900))
+      .orderBy('c.name')
+      .execute();
+    for (const row of rows) {
+      const list = out.get(row.document_id) ?? [];
+      list.push({ id: row.id, name: row.name });
+      out.set(row.document_id, list);
+    }
+  }
+  return out;
+}
+
+/** The first top-level e-mail of the matter with this normalised-header hash (not `exceptId`). */
+export function findFirstByEmailHash(
+  db: Executor,
+  matterId: number,
+  emailHash: string,
+  exceptId: number,
+) {
+  return db
+    .selectFrom('documents')
+    .select(['id', 'control_number'])
+    .where('matter_id', '=', matterId)
+    .where('email_hash', '=', emailHash)
+    .where('parent_id', 'is', null)
+    .where('extract_status', '=', 'extracted')
+    .where('id', '!=', exceptId)
+    .orderBy('id')
+    .limit(1)
+    .executeTakeFirst();
+}
+
+/**
+ * A suppressed copy's custodians join the kept document's, across its whole family (the
+ * kept e-mail's attachments were held by the same people).
+ */
+export async function addCustodiansOfCopy(
+  db: Executor,
+  keptId: number,
+  copyId: number,
+): Promise<void> {
+  await sql`INSERT OR IGNORE INTO document_custodians (document_id, custodian_id)
+    SELECT f.id, dc.custodian_id FROM document_custodians dc
+      JOIN documents k ON k.id = ${keptId}
+      JOIN documents f ON f.matter_id = k.matter_id AND f.family_id = COALESCE(k.family_id, k.id)
+      WHERE dc.document_id = ${copyId}`.execute(db);
+}
+
+/** A new child holds the custodians of its parent (a family is held as a unit). */
+export async function inheritCustodians(db: Executor, parentId: number, childId: number) {
+  await sql`INSERT OR IGNORE INTO document_custodians (document_id, custodian_id)
+    SELECT ${childId}, custodian_id FROM document_custodians WHERE document_id = ${parentId}`.execute(
+    db,
+  );
 }
 
 /** The list page joined with custodian, duplicate's control number and index state. */
@@ -202,9 +290,7 @@ export function listDocumentsPage(
     .selectAll('d')
     .select(['c.name as custodian_name', 'x.folded_in as index_folded_in'])
     .where('d.matter_id', '=', matterId);
-  if (filter.status) query = query.where('d.extract_status', '=', filter.status);
-  if (filter.custodian) query = query.where('d.custodian_id', '=', filter.custodian);
-  if (filter.batch) query = query.where('d.batch_id', '=', filter.batch);
+  query = query.where(filterSql(filter));
   return query.orderBy('d.control_number').limit(page.limit).offset(page.offset).execute();
 }
 
@@ -217,9 +303,7 @@ export async function countDocumentsFiltered(
     .selectFrom('documents as d')
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('d.matter_id', '=', matterId);
-  if (filter.status) query = query.where('d.extract_status', '=', filter.status);
-  if (filter.custodian) query = query.where('d.custodian_id', '=', filter.custodian);
-  if (filter.batch) query = query.where('d.batch_id', '=', filter.batch);
+  query = query.where(filterSql(filter));
   return Number((await query.executeTakeFirstOrThrow()).n);
 }
 

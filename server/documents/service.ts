@@ -22,6 +22,7 @@ import { currentIndexIdOf } from '../indexing/queries';
 import { removeDocument } from '../trash/service';
 import type { Actor } from './ingest';
 import {
+  allCustodiansOf,
   countDocumentsFiltered,
   findCustodianByName,
   findDocument,
@@ -45,8 +46,11 @@ function indexStateOf(row: JoinedRow): IndexState {
   return row.index_folded_in ? 'folded' : 'indexed';
 }
 
-/** A documents row (with its joins) as the list shows it. */
-export function documentRowToListItem(row: JoinedRow): DocumentListItem {
+/** A documents row (with its joins) as the list shows it; `allCustodians` from allCustodiansOf. */
+export function documentRowToListItem(
+  row: JoinedRow,
+  allCustodians: { id: number; name: string }[] = [],
+): DocumentListItem {
   return {
     id: row.id,
     controlNumber: row.control_number,
@@ -68,6 +72,34 @@ export function documentRowToListItem(row: JoinedRow): DocumentListItem {
     parentId: row.parent_id,
     indexState: indexStateOf(row),
     createdAt: row.created_at,
+    ...relationshipFields(row, allCustodians),
+  };
+}
+
+/** Family, thread, near-duplicate, custodian and e-mail/file metadata fields of a row. */
+function relationshipFields(row: JoinedRow, allCustodians: { id: number; name: string }[]) {
+  const own =
+    row.custodian_id !== null ? [{ id: row.custodian_id, name: row.custodian_name ?? '' }] : [];
+  return {
+    familyId: row.family_id ?? row.id,
+    familyDate: row.family_date,
+    threadId: row.thread_id,
+    inclusive: row.inclusive === null ? null : row.inclusive === 1,
+    nearDuplicateGroupId: row.near_dup_group_id,
+    nearDuplicateSimilarity: row.near_dup_similarity,
+    allCustodians: allCustodians.length > 0 ? allCustodians : own,
+    ocr: row.ocr === 1,
+    emailFrom: row.email_from,
+    emailTo: row.email_to,
+    emailCc: row.email_cc,
+    emailBcc: row.email_bcc,
+    messageId: row.message_id,
+    inReplyTo: row.in_reply_to,
+    references: row.email_references,
+    receivedAt: row.received_at,
+    fileCreatedAt: row.file_created_at,
+    fileModifiedAt: row.file_modified_at,
+    lastAuthor: row.last_author,
   };
 }
 
@@ -93,13 +125,24 @@ export async function listDocuments(
   query: DocumentsQueryReq,
 ): Promise<DocumentsPageResponse> {
   const indexId = await currentIndexIdOf(ctx.db, matterId);
-  const filter = { status: query.status, custodian: query.custodian, batch: query.batch };
+  const filter = {
+    status: query.status,
+    custodian: query.custodian,
+    batch: query.batch,
+    inclusiveOnly: query.inclusiveOnly,
+    nearDuplicateGroup: query.nearDuplicateGroup,
+    thread: query.thread,
+  };
   const rows = await listDocumentsPage(ctx.db, matterId, indexId, filter, {
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
+  const custodians = await allCustodiansOf(
+    ctx.db,
+    rows.map((r) => r.id),
+  );
   return {
-    documents: rows.map((row) => documentRowToListItem(row as JoinedRow)),
+    documents: rows.map((row) => documentRowToListItem(row as JoinedRow, custodians.get(row.id))),
     total: await countDocumentsFiltered(ctx.db, matterId, filter),
     page: query.page,
     pageSize: query.pageSize,
@@ -123,7 +166,11 @@ export async function readDocument(
   const first =
     row.duplicate_of !== null ? await findDocumentRef(ctx.db, row.duplicate_of) : undefined;
   return {
-    document: { ...documentRowToListItem(row), recipients: row.recipients, sha256: row.sha256 },
+    document: {
+      ...documentRowToListItem(row, (await allCustodiansOf(ctx.db, [row.id])).get(row.id)),
+      recipients: row.recipients,
+      sha256: row.sha256,
+    },
     family: {
       parent: parent ? refOf(parent) : null,
       attachments: (await listDocumentRefs(ctx.db, { parentId: row.id })).map(refOf),
@@ -197,7 +244,7 @@ export async function retryDocument(
     throw conflict(
       `Only a failed document can be retried; ${row.control_number} is ${row.extract_status}.`,
     );
-  if (row.doc_type === 'zip')
+  if (row.doc_type === 'zip' || row.doc_type === 'mbox' || row.doc_type === 'pst')
     throw conflict(
       `${row.control_number} is an archive that could not be expanded (${row.extract_error}); upload a corrected archive instead.`,
     );

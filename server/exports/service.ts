@@ -12,7 +12,12 @@ import { pageIds } from '../search/service';
 import { documentsByIds } from '../search/queries';
 import { rankResultSet } from '../search/ranking';
 import { toCsv } from './csv';
-import { findMatterPrefix, listPrivilegeLogRows } from './queries';
+import {
+  collectionCells,
+  collectionFieldsOf,
+  findMatterPrefix,
+  listPrivilegeLogRows,
+} from './queries';
 
 export interface Actor {
   id: string;
@@ -57,6 +62,7 @@ export async function exportResults(
   const position = new Map(ranked.ids.map((id, i) => [id, i]));
   const docs = new Map((await documentsByIds(ctx.db, matterId, ids)).map((d) => [d.id, d]));
   const codes = await appliedCodesOf(ctx.db, ids);
+  const collection = await collectionFieldsOf(ctx.db, ids);
   const rows: (string | number)[][] = [];
   for (const id of ids) {
     const doc = docs.get(id);
@@ -71,6 +77,7 @@ export async function exportResults(
       doc.doc_type,
       ranked.bar[i].toFixed(4),
       (codes.get(id) ?? []).map((c) => c.name).join(CODES_SEPARATOR),
+      ...collectionCells(collection.get(id)),
     ]);
   }
   await recordAudit(ctx.db, {

@@ -5,95 +5,91 @@ import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { AddressObject, ParsedMail } from 'mailparser';
 import { decodeText } from './charset';
+import {
+  applyCoreProperties,
+  blank,
+  cleanString,
+  isoOrNull,
+  Refused,
+  tidyText,
+  type Fields,
+} from './fields';
+import { extractMsg } from './msg';
+import { ocrImage, ocrPdf, type LongStep } from './ocr';
+import { extractCsv, extractPptx, extractXlsx } from './office';
 import { fail, precheckFile } from './precheck';
 import { inflatesWithin, listZipNames, readZipEntry } from './zip-names';
 import {
   EXTRACT_DEFAULTS,
   type ChildFile,
+  type EmailFields,
   type ExtractLimits,
   type ExtractResult,
   type ExtractSuccess,
-  type FailureReason,
   type SniffResult,
 } from './types';
 
-type Fields = Omit<ExtractSuccess, 'ok' | 'kind' | 'mime' | 'charset'> & {
-  charset?: string | null;
-};
-
-class Refused extends Error {
-  constructor(readonly reason: FailureReason) {
-    super(reason);
-  }
-}
-
-const blank = (): Fields => ({
-  title: null,
-  author: null,
-  recipients: null,
-  sentAt: null,
-  createdAt: null,
-  pageCount: null,
-  text: '',
-  attachments: [],
-});
-
-const cleanString = (value: unknown): string | null => {
-  if (typeof value !== 'string') return null;
-  const trimmed = value.replace(/\s+/g, ' ').trim();
-  return trimmed === '' ? null : trimmed;
-};
-
-const isoOrNull = (value: Date | null | undefined): string | null =>
-  value instanceof Date && !Number.isNaN(value.getTime()) ? value.toISOString() : null;
-
-/** Normalises extracted text: Unix newlines, no trailing spaces, at most one blank line in a row. */
-export function tidyText(text: string): string {
-  return text
-    .replace(/\r\n?/g, '\n')
-    .replace(/[ \t\f\v]+\n/g, '\n')
-    .replace(/\n{3,}/g, '\n\n')
-    .trim();
-}
+export { tidyText };
 
 /** A PDF page counts as having text when it holds a letter or digit (any script). */
 const hasWords = (text: string) => /[\p{L}\p{N}]/u.test(text);
 
 // ---- PDF (ISO 32000) -------------------------------------------------------------------
 
+async function openPdf(bytes: Buffer, password: string | undefined) {
+  const { PDFParse } = await import('pdf-parse');
+  // A copy: pdf.js may transfer (detach) the buffer it is given.
+  return new PDFParse({ data: new Uint8Array(bytes), verbosity: 0, password });
+}
+
+const isPasswordError = (error: unknown) =>
+  (error instanceof Error ? error.name : '') === 'PasswordException';
+
 async function extractPdf(
   filePath: string,
+  limits: ExtractLimits,
   onCancel: (cancel: () => void) => void,
+  onLongStep: LongStep,
 ): Promise<Fields> {
   const bytes = await readFile(filePath);
-  // A copy: pdf.js may transfer (detach) the buffer it is given.
-  const { PDFParse } = await import('pdf-parse');
-  const parser = new PDFParse({ data: new Uint8Array(bytes), verbosity: 0 });
-  onCancel(() => void parser.destroy().catch(() => undefined));
-  try {
-    let textResult;
+  // Without a password first, then each of the matter's passwords in turn.
+  const candidates: (string | undefined)[] = [undefined, ...limits.passwords];
+  let parser: Awaited<ReturnType<typeof openPdf>> | null = null;
+  let password: string | undefined;
+  let textResult;
+  for (const candidate of candidates) {
+    const attempt = await openPdf(bytes, candidate);
+    onCancel(() => void attempt.destroy().catch(() => undefined));
     try {
-      textResult = await parser.getText();
+      textResult = await attempt.getText();
+      parser = attempt;
+      password = candidate;
+      break;
     } catch (error) {
-      const name = error instanceof Error ? error.name : '';
-      if (name === 'PasswordException') throw new Refused('encrypted PDF');
-      throw new Refused('not a valid PDF');
+      await attempt.destroy().catch(() => undefined);
+      if (!isPasswordError(error)) throw new Refused('not a valid PDF');
     }
+  }
+  if (!parser || !textResult) throw new Refused('encrypted PDF');
+  try {
     const pageCount = textResult.total;
     if (!pageCount) throw new Refused('not a valid PDF');
-    const text = tidyText(textResult.pages.map((page) => page.text).join('\n\n'));
-    if (!hasWords(text)) throw new Refused('no text layer: scanned image');
     const fields = blank();
     fields.pageCount = pageCount;
-    fields.text = text;
+    fields.text = tidyText(textResult.pages.map((page) => page.text).join('\n\n'));
+    if (!hasWords(fields.text)) {
+      // No text layer: a scan. Each page is rendered and read by OCR.
+      fields.text = await ocrPdf(filePath, pageCount, limits, password, onLongStep);
+      fields.ocr = true;
+    }
     try {
       const info = await parser.getInfo();
       const dict = (info.info ?? {}) as Record<string, unknown>;
       fields.title = cleanString(dict.Title) ?? cleanString(info.metadata?.get('dc:title'));
       fields.author = cleanString(dict.Author) ?? cleanString(info.metadata?.get('dc:creator'));
-      fields.createdAt = isoOrNull(
-        info.getDateNode().CreationDate ?? info.getDateNode().XmpCreateDate,
-      );
+      const dates = info.getDateNode();
+      fields.createdAt = isoOrNull(dates.CreationDate ?? dates.XmpCreateDate);
+      fields.modifiedAt = isoOrNull(dates.ModDate ?? dates.XmpModifyDate);
     } catch {
       // Metadata is optional; the text is what matters.
     }
@@ -104,24 +100,6 @@ async function extractPdf(
 }
 
 // ---- DOCX (ECMA-376) -------------------------------------------------------------------
-
-const XML_ENTITIES: Record<string, string> = { amp: '&', lt: '<', gt: '>', quot: '"', apos: "'" };
-const decodeXml = (text: string) =>
-  text.replace(/&(#x[0-9a-f]+|#\d+|amp|lt|gt|quot|apos);/gi, (_m, entity: string) =>
-    entity[0] === '#'
-      ? String.fromCodePoint(
-          entity[1].toLowerCase() === 'x'
-            ? parseInt(entity.slice(2), 16)
-            : parseInt(entity.slice(1), 10),
-        )
-      : XML_ENTITIES[entity.toLowerCase()],
-  );
-
-/** Reads one element of docProps/core.xml (ECMA-376 Part 2 §11, Dublin Core terms). */
-function coreProperty(xml: string, tag: string): string | null {
-  const match = new RegExp(`<${tag}(?:\\s[^>]*)?>([\\s\\S]*?)</${tag}>`).exec(xml);
-  return match ? cleanString(decodeXml(match[1])) : null;
-}
 
 /** Largest inflated size accepted for a DOCX package (mammoth inflates it in memory). */
 const DOCX_MAX_INFLATED_FACTOR = 4;
@@ -143,15 +121,9 @@ async function extractDocx(filePath: string, limits: ExtractLimits): Promise<Fie
   const fields = blank();
   fields.text = tidyText(raw);
   const core = await readZipEntry(filePath, 'docProps/core.xml', 1024 * 1024);
-  if (core) {
-    const xml = core.toString('utf8');
-    fields.title = coreProperty(xml, 'dc:title');
-    fields.author = coreProperty(xml, 'dc:creator');
-    const created = coreProperty(xml, 'dcterms:created');
-    fields.createdAt = created ? isoOrNull(new Date(created)) : null;
-  }
+  if (core) applyCoreProperties(fields, core.toString('utf8'));
   const app = await readZipEntry(filePath, 'docProps/app.xml', 1024 * 1024);
-  const pages = app ? coreProperty(app.toString('utf8'), 'Pages') : null;
+  const pages = app ? /<Pages>(\d+)<\/Pages>/.exec(app.toString('utf8'))?.[1] : null;
   fields.pageCount = pages && /^\d+$/.test(pages) && Number(pages) > 0 ? Number(pages) : null;
   return fields;
 }
@@ -173,6 +145,40 @@ const addressText = (value: AddressObject | AddressObject[] | undefined): string
   (Array.isArray(value) ? value : value ? [value] : [])
     .flatMap((a) => a.value.flatMap(mailboxText))
     .join(', ');
+
+const messageIdOf = (value: unknown): string | null => {
+  const text = cleanString(Array.isArray(value) ? value[0] : value);
+  return text ? (/<[^<>\s]+>/.exec(text)?.[0] ?? `<${text.replace(/^<|>$/g, '')}>`) : null;
+};
+
+/** The date of the newest (topmost) Received field: RFC 5321 §4.4 trace, after its ";". */
+function receivedDate(value: unknown): string | null {
+  const first = Array.isArray(value) ? value[0] : value;
+  if (typeof first !== 'string') return null;
+  const semicolon = first.lastIndexOf(';');
+  return semicolon < 0 ? null : isoOrNull(new Date(first.slice(semicolon + 1).trim()));
+}
+
+function emailFieldsOf(mail: ParsedMail): EmailFields {
+  const references = Array.isArray(mail.references)
+    ? mail.references
+    : mail.references
+      ? mail.references.split(/\s+/)
+      : [];
+  return {
+    from: addressText(mail.from),
+    to: addressText(mail.to),
+    cc: addressText(mail.cc),
+    bcc: addressText(mail.bcc),
+    messageId: messageIdOf(mail.messageId),
+    inReplyTo: messageIdOf(mail.inReplyTo),
+    references: references
+      .map((r) => messageIdOf(r))
+      .filter(Boolean)
+      .join(' '),
+    receivedAt: receivedDate(mail.headers.get('received')),
+  };
+}
 
 const EXTENSION_OF: Record<string, string> = {
   'application/pdf': '.pdf',
@@ -227,6 +233,7 @@ async function extractEmail(filePath: string, limits: ExtractLimits): Promise<Fi
   fields.author = cleanString(addressText(mail.from));
   fields.recipients = { to: addressText(mail.to), cc: addressText(mail.cc) };
   fields.sentAt = isoOrNull(mail.date);
+  fields.email = emailFieldsOf(mail);
   const body =
     mail.text ?? (mail.html ? htmlToText(mail.html, HTML_OPTIONS(limits.maxFileBytes)) : '');
   fields.text = tidyText(body);
@@ -276,14 +283,35 @@ export async function extractSniffed(
   sniffed: SniffResult,
   size: number,
   limits: ExtractLimits,
+  hooks: { onLongStep?: LongStep } = {},
 ): Promise<ExtractResult> {
   const kind = sniffed.kind;
   let cancel: () => void = () => undefined;
   let timer: NodeJS.Timeout | undefined;
+  let expire: () => void = () => undefined;
+  const arm = (ms: number) => {
+    clearTimeout(timer);
+    timer = setTimeout(() => expire(), ms);
+  };
+  // An OCR page restarts the clock with its own limit (the pool does the same).
+  const onLongStep: LongStep = (ms) => {
+    arm(ms + limits.timeoutMs);
+    hooks.onLongStep?.(ms);
+  };
   const work = (async (): Promise<Fields> => {
     switch (kind) {
       case 'pdf':
-        return extractPdf(filePath, (c) => (cancel = c));
+        return extractPdf(filePath, limits, (c) => (cancel = c), onLongStep);
+      case 'msg':
+        return extractMsg(filePath);
+      case 'xlsx':
+        return extractXlsx(filePath, limits);
+      case 'csv':
+        return extractCsv(filePath, sniffed.charset);
+      case 'pptx':
+        return extractPptx(filePath, limits);
+      case 'image':
+        return ocrImage(filePath, limits, onLongStep);
       case 'docx':
         return extractDocx(filePath, limits);
       case 'email':
@@ -298,7 +326,8 @@ export async function extractSniffed(
     }
   })();
   const timeout = new Promise<'timeout'>((resolve) => {
-    timer = setTimeout(() => resolve('timeout'), limits.timeoutMs);
+    expire = () => resolve('timeout');
+    arm(limits.timeoutMs);
   });
   try {
     const outcome = await Promise.race([work, timeout]);

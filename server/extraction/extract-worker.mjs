@@ -8,7 +8,10 @@ const core = await tsImport('./extract-core.ts', import.meta.url);
 parentPort.on('message', async (task) => {
   let result;
   try {
-    result = await core.extractSniffed(task.filePath, task.sniffed, task.size, task.limits);
+    result = await core.extractSniffed(task.filePath, task.sniffed, task.size, task.limits, {
+      // A long step (one OCR page) restarts the pool's clock for this file.
+      onLongStep: (ms) => parentPort.postMessage({ id: task.id, extendMs: ms }),
+    });
   } catch (error) {
     result = {
       ok: false,

@@ -240,15 +240,15 @@ describe('extractFile: hostile and broken inputs', () => {
     });
   });
 
-  it('a PNG named .pdf is what its bytes say: "unsupported type"', async () => {
+  it('a PNG named .pdf is what its bytes say: an image (for OCR); a broken one "file could not be read"', async () => {
     const png = Buffer.concat([
       Buffer.from('89504e470d0a1a0a0000000d49484452', 'hex'),
       Buffer.alloc(200),
     ]);
     expect(await extractBytes(png, 'scan.pdf')).toMatchObject({
       ok: false,
-      kind: 'unknown',
-      reason: 'unsupported type',
+      kind: 'image',
+      reason: 'file could not be read',
     });
   });
 
@@ -266,11 +266,11 @@ describe('extractFile: hostile and broken inputs', () => {
     });
   });
 
-  it('an image-only PDF is "no text layer: scanned image"', async () => {
+  it('an image-only PDF goes to OCR; a blank scan is "OCR found no text"', async () => {
     expect(await extractBytes(await makeImageOnlyPdf(), 'scan.pdf')).toMatchObject({
       ok: false,
       kind: 'pdf',
-      reason: 'no text layer: scanned image',
+      reason: 'OCR found no text',
     });
   });
 
@@ -366,9 +366,9 @@ describe('extractFile: hostile and broken inputs', () => {
     });
   });
 
-  it('a PNG named .txt is "unsupported type"', async () => {
-    const png = Buffer.concat([Buffer.from('89504e470d0a1a0a', 'hex'), Buffer.alloc(100)]);
-    expect(await extractBytes(png, 'photo.txt')).toMatchObject({
+  it('a GIF named .txt is "unsupported type" (OCR takes PNG, JPEG and TIFF only)', async () => {
+    const gif = Buffer.concat([Buffer.from('GIF89a', 'latin1'), Buffer.alloc(100)]);
+    expect(await extractBytes(gif, 'photo.txt')).toMatchObject({
       ok: false,
       kind: 'unknown',
       reason: 'unsupported type',

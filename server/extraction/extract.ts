@@ -164,8 +164,18 @@ export class ExtractionPool {
       if (!this.closed) this.pump();
     };
     const id = this.nextId++;
-    const onMessage = (message: { id?: number; result?: ExtractResult }) => {
-      if (message.id === id && message.result) finish(revive(message.result), true);
+    const arm = (ms: number) => {
+      clearTimeout(clock.timer);
+      clock.timer = setTimeout(
+        () => finish(failure(task.sniffed, 'extraction timed out'), false),
+        ms,
+      );
+    };
+    const onMessage = (message: { id?: number; result?: ExtractResult; extendMs?: number }) => {
+      if (message.id !== id) return;
+      if (message.result) finish(revive(message.result), true);
+      // OCR announces each page with its own time limit; the file's clock restarts from it.
+      else if (message.extendMs && !settled) arm(message.extendMs + task.limits.timeoutMs);
     };
     const onError = (error: Error & { code?: string }) =>
       finish(
@@ -187,10 +197,7 @@ export class ExtractionPool {
       return finish(failure(task.sniffed, 'file could not be read'), false);
     }
     // The clock starts once the worker is up, so start-up time is not charged to the file.
-    clock.timer = setTimeout(
-      () => finish(failure(task.sniffed, 'extraction timed out'), false),
-      task.limits.timeoutMs,
-    );
+    arm(task.limits.timeoutMs);
     worker.postMessage({
       id,
       filePath: task.filePath,

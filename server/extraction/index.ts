@@ -9,6 +9,9 @@ export {
   type ArchiveSkipped,
   type ExpandResult,
 } from './archive';
+export { expandContainer } from './containers';
+export { splitMbox, expandMbox, looksLikeMbox, type MboxMessage } from './mbox';
+export { expandPst } from './pst';
 export {
   extractFile,
   extractFileInProcess,
@@ -19,10 +22,14 @@ export {
 } from './extract';
 export {
   FAILURE_REASONS,
+  CONTAINER_KINDS,
+  isContainerKind,
   MIME_OF,
   EXTRACT_DEFAULTS,
   ARCHIVE_DEFAULTS,
   type FileKind,
+  type ContainerKind,
+  type EmailFields,
   type FailureReason,
   type SniffResult,
   type ChildFile,

@@ -3,6 +3,7 @@
 import { stat } from 'node:fs/promises';
 import { sniffFile } from './sniff';
 import {
+  isContainerKind,
   MIME_OF,
   type ExtractFailure,
   type ExtractLimits,
@@ -40,6 +41,6 @@ export async function precheckFile(
   const { kind } = sniffed;
   if (size > limits.maxFileBytes) return { done: fail(kind, 'file exceeds the size limit') };
   if (kind === 'unknown') return { done: fail(kind, 'unsupported type') };
-  if (kind === 'zip') return { done: fail(kind, 'archive must be expanded, not extracted') };
+  if (isContainerKind(kind)) return { done: fail(kind, 'archive must be expanded, not extracted') };
   return { done: null, sniffed, size };
 }

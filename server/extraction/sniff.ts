@@ -4,6 +4,7 @@ import { open } from 'node:fs/promises';
 import path from 'node:path';
 import iconv from 'iconv-lite';
 import { detectTextCharset } from './charset';
+import { looksLikeMbox } from './mbox';
 import { listZipNames } from './zip-names';
 import { MIME_OF, type FileKind, type SniffResult } from './types';
 
@@ -19,7 +20,14 @@ const result = (kind: FileKind, extra: Partial<SniffResult> = {}): SniffResult =
 const startsWith = (head: Buffer, bytes: number[], offset = 0) =>
   head.length >= offset + bytes.length && bytes.every((b, i) => head[offset + i] === b);
 
-// Signatures of common formats Quarry does not extract, so the log can say what they are.
+const OLE2_SIGNATURE = [0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1];
+const IMAGE_MIMES: [string, string][] = [
+  ['PNG image', 'image/png'],
+  ['JPEG image', 'image/jpeg'],
+  ['TIFF image', 'image/tiff'],
+];
+
+// Signatures of common formats (some Quarry does not extract), so the log can say what they are.
 const KNOWN_BINARIES: { detail: string; test: (head: Buffer) => boolean }[] = [
   {
     detail: 'PNG image',
@@ -130,6 +138,11 @@ export function sniffHead(
     // ECMA-376 Part 2 §10.1.2.2 ([Content_Types].xml) and Part 1 §11.3.10 (the main document part).
     if (names.includes('[Content_Types].xml') && names.includes('word/document.xml'))
       return result('docx');
+    // ECMA-376 Part 1 §12.3.23 (the workbook part) and §13.3.6 (the presentation part).
+    if (names.includes('[Content_Types].xml') && names.includes('xl/workbook.xml'))
+      return result('xlsx');
+    if (names.includes('[Content_Types].xml') && names.includes('ppt/presentation.xml'))
+      return result('pptx');
     if (zipNames === null && extension === '.docx') return result('docx'); // broken package: extract reports it
     // Other OOXML packages (spreadsheets, slides) and OpenDocument files (ISO/IEC 26300 §3.3,
     // the "mimetype" entry) are documents, not folders to unpack.
@@ -137,6 +150,21 @@ export function sniffHead(
       return result('unknown', { detail: 'Office Open XML file other than a Word document' });
     if (names[0] === 'mimetype') return result('unknown', { detail: 'OpenDocument file' });
     return result('zip');
+  }
+
+  // MS-PST §2.2.2.6: dwMagic "!BDN".
+  if (head.subarray(0, 4).toString('latin1') === '!BDN') return result('pst');
+  // An Outlook message is an OLE2 compound file (MS-CFB §2.2) whose directory names the
+  // MAPI property streams "__substg1.0_..." (MS-OXMSG §2.1), in UTF-16LE.
+  if (
+    startsWith(head, OLE2_SIGNATURE) &&
+    (extension === '.msg' || head.includes(Buffer.from('__substg1.0_', 'utf16le')))
+  )
+    return result('msg');
+  // Images go to OCR: PNG (ISO/IEC 15948 §5.2), JPEG SOI (ITU T.81 Annex B), TIFF (TIFF 6.0 §2).
+  for (const [detail, mime] of IMAGE_MIMES) {
+    if (KNOWN_BINARIES.find((b) => b.detail === detail)?.test(head))
+      return result('image', { mime, detail });
   }
 
   const binary = KNOWN_BINARIES.find((b) => b.test(head));
@@ -150,9 +178,13 @@ export function sniffHead(
   }
   const text = iconv.decode(head, charset, { stripBOM: true });
 
+  // RFC 4155: a mailbox opens with a "From " separator line; a single saved message named
+  // .eml that keeps one is still an e-mail.
+  if (looksLikeMbox(text) && extension !== '.eml') return result('mbox', { charset });
   if (looksLikeEmail(text, extension)) return result('email', { charset });
   if (looksLikeHtml(text)) return result('html', { charset });
   if (extension === '.md' || extension === '.markdown') return result('markdown', { charset });
+  if (extension === '.csv') return result('csv', { charset });
   return result('text', { charset });
 }
 

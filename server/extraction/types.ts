@@ -3,7 +3,31 @@
 import { UPLOAD_DEFAULTS } from '../../shared/limits';
 
 /** What a file is, decided from its bytes (the extension only breaks ties). */
-export type FileKind = 'pdf' | 'docx' | 'zip' | 'email' | 'html' | 'text' | 'markdown' | 'unknown';
+export type FileKind =
+  | 'pdf'
+  | 'docx'
+  | 'zip'
+  | 'email'
+  | 'html'
+  | 'text'
+  | 'markdown'
+  // Mail containers (split into messages at load time, like a zip): RFC 4155 MBOX, Outlook PST.
+  | 'mbox'
+  | 'pst'
+  /** One Outlook message (MS-OXMSG, a compound file). */
+  | 'msg'
+  | 'xlsx'
+  | 'csv'
+  | 'pptx'
+  /** PNG, JPEG or TIFF: read by OCR. */
+  | 'image'
+  | 'unknown';
+
+/** Kinds that hold other files and are expanded at load time rather than extracted. */
+export const CONTAINER_KINDS = ['zip', 'mbox', 'pst'] as const;
+export type ContainerKind = (typeof CONTAINER_KINDS)[number];
+export const isContainerKind = (kind: FileKind): kind is ContainerKind =>
+  (CONTAINER_KINDS as readonly string[]).includes(kind);
 
 export const MIME_OF: Record<FileKind, string> = {
   pdf: 'application/pdf',
@@ -13,6 +37,13 @@ export const MIME_OF: Record<FileKind, string> = {
   html: 'text/html',
   text: 'text/plain',
   markdown: 'text/markdown',
+  mbox: 'application/mbox',
+  pst: 'application/vnd.ms-outlook-pst',
+  msg: 'application/vnd.ms-outlook',
+  xlsx: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+  csv: 'text/csv',
+  pptx: 'application/vnd.openxmlformats-officedocument.presentationml.presentation',
+  image: 'image/png',
   unknown: 'application/octet-stream',
 };
 
@@ -36,6 +67,15 @@ export const FAILURE_REASONS = [
   'file could not be read',
   // Not a failure of the file: a zip goes to expandArchive, not extractFile.
   'archive must be expanded, not extracted',
+  'not a valid Outlook message',
+  'not a valid Outlook data file',
+  'mailbox holds no messages',
+  'not a valid spreadsheet',
+  'not a valid presentation',
+  'OCR found no text',
+  'OCR timed out on a page',
+  'OCR is not available on this server',
+  'too many pages to OCR',
 ] as const;
 export type FailureReason = (typeof FAILURE_REASONS)[number];
 
@@ -63,9 +103,24 @@ export interface ChildFile {
   content: Buffer;
 }
 
+/** E-mail header fields kept apart (RFC 5322 §3.6); address lists as display text. */
+export interface EmailFields {
+  from: string;
+  to: string;
+  cc: string;
+  bcc: string;
+  /** Message-ID with its angle brackets, e.g. "<a1@example.com>"; null when absent. */
+  messageId: string | null;
+  inReplyTo: string | null;
+  /** References as written: message ids separated by single spaces. */
+  references: string;
+  /** Delivery date (the top Received field, or the store's delivery time), ISO 8601. */
+  receivedAt: string | null;
+}
+
 export interface ExtractSuccess {
   ok: true;
-  kind: Exclude<FileKind, 'unknown' | 'zip'>;
+  kind: Exclude<FileKind, 'unknown' | ContainerKind>;
   mime: string;
   title: string | null;
   /** Author of a PDF/DOCX, or the sender (From) of an e-mail. */
@@ -76,6 +131,14 @@ export interface ExtractSuccess {
   sentAt: string | null;
   /** Creation date from PDF info or DOCX core properties, ISO 8601, else null. */
   createdAt: string | null;
+  /** Last modified date from the file's own metadata (PDF ModDate, OOXML dcterms:modified). */
+  modifiedAt: string | null;
+  /** OOXML cp:lastModifiedBy. */
+  lastAuthor: string | null;
+  /** E-mail header fields (e-mail and Outlook messages), else null. */
+  email: EmailFields | null;
+  /** True when the text came from OCR (a scan or an image). */
+  ocr: boolean;
   pageCount: number | null;
   charset: string | null;
   text: string;
@@ -95,11 +158,20 @@ export interface ExtractLimits {
   maxFileBytes: number;
   /** Wall-clock budget per file; a hostile file must not hang the worker. */
   timeoutMs: number;
+  /** Time limit for OCR of one page (tesseract is stopped after it). */
+  ocrPageTimeoutMs: number;
+  /** Most pages OCR reads from one PDF; a longer scan fails with a reason. */
+  ocrMaxPages: number;
+  /** Passwords to try on an encrypted PDF (the matter's password list); never logged. */
+  passwords: string[];
 }
 
 export const EXTRACT_DEFAULTS: ExtractLimits = {
   maxFileBytes: UPLOAD_DEFAULTS.maxFileBytes,
   timeoutMs: 30_000,
+  ocrPageTimeoutMs: 60_000,
+  ocrMaxPages: 200,
+  passwords: [],
 };
 
 export interface ArchiveLimits {

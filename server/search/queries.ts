@@ -67,8 +67,12 @@ function nextDay(date: string): string {
 export function filterCondition(filters: SearchFilters): RawBuilder<SqlBool> {
   const parts: RawBuilder<unknown>[] = [sql`1`];
   const list = (values: readonly (string | number)[]) => sql.join(values.map((v) => sql`${v}`));
+  // Every custodian who held a copy (document_custodians), so a copy suppressed as a
+  // duplicate still counts for its custodian.
   if (filters.custodianIds?.length)
-    parts.push(sql`d.custodian_id IN (${list(filters.custodianIds)})`);
+    parts.push(
+      sql`d.id IN (SELECT dc.document_id FROM document_custodians dc WHERE dc.custodian_id IN (${list(filters.custodianIds)}))`,
+    );
   if (filters.dateFrom) parts.push(sql`d.sent_at >= ${filters.dateFrom}`);
   if (filters.dateTo) parts.push(sql`d.sent_at < ${nextDay(filters.dateTo)}`);
   if (filters.docTypes?.length) parts.push(sql`d.doc_type IN (${list(filters.docTypes)})`);
@@ -181,6 +185,13 @@ export async function documentsByIds(db: Executor, matterId: number, ids: number
           'd.parent_id',
           'd.duplicate_of',
           'c.name as custodian_name',
+          // Family, thread, near-duplicate and OCR fields for result columns (issue 13).
+          'd.family_id',
+          'd.thread_id',
+          'd.inclusive',
+          'd.near_dup_group_id',
+          'd.near_dup_similarity',
+          'd.ocr',
         ])
         // Unary + keeps SQLite from reading the matter through a matter_id index (every
         // document of a 100,000-document matter, 11 ms) instead of the page's rowids.

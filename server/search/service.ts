@@ -188,6 +188,12 @@ async function explainPage(
       },
       duplicateOf: ranked.duplicateOf[i],
       parentId: doc.parent_id,
+      familyId: doc.family_id ?? doc.id,
+      threadId: doc.thread_id,
+      inclusive: doc.inclusive === null ? null : doc.inclusive === 1,
+      nearDuplicateGroupId: doc.near_dup_group_id,
+      nearDuplicateSimilarity: doc.near_dup_similarity,
+      ocr: doc.ocr === 1,
     };
   });
 }

@@ -99,6 +99,15 @@ export const documentsQuerySchema = z.object({
   custodian: idSchema.optional(),
   /** Upload batch id. */
   batch: idSchema.optional(),
+  /** Only inclusive e-mails (and every document that is not an e-mail). */
+  inclusiveOnly: z
+    .enum(['true', 'false'], { error: 'must be true or false' })
+    .transform((v) => v === 'true')
+    .optional(),
+  /** Near-duplicate group (the principal document's id). */
+  nearDuplicateGroup: idSchema.optional(),
+  /** Thread (the id of its first message). */
+  thread: idSchema.optional(),
 });
 export type DocumentsQueryReq = z.infer<typeof documentsQuerySchema>;
 
@@ -124,6 +133,34 @@ export interface DocumentListItem {
   parentId: number | null;
   indexState: IndexState;
   createdAt: string;
+  /** The top-level document of this one's family (its own id when top-level). */
+  familyId: number;
+  /** The top-level item's date: an attachment sorts with its e-mail. */
+  familyDate: string | null;
+  /** The thread's first message (e-mail only). */
+  threadId: number | null;
+  /** E-mail: true when no later reply of its branch contains it; null for other documents. */
+  inclusive: boolean | null;
+  /** Near-duplicate group (its principal's id) and the estimated Jaccard resemblance to it. */
+  nearDuplicateGroupId: number | null;
+  nearDuplicateSimilarity: number | null;
+  /** Every custodian who held a copy (this document's and its de-duplicated copies'). */
+  allCustodians: CustodianRef[];
+  /** True when the text came from OCR. */
+  ocr: boolean;
+  // E-mail header fields (RFC 5322 3.6), display text "Name <addr>, ...".
+  emailFrom: string;
+  emailTo: string;
+  emailCc: string;
+  emailBcc: string;
+  messageId: string | null;
+  inReplyTo: string | null;
+  references: string;
+  receivedAt: string | null;
+  // File metadata.
+  fileCreatedAt: string | null;
+  fileModifiedAt: string | null;
+  lastAuthor: string;
 }
 
 export interface DocumentsPageResponse {

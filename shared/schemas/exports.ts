@@ -51,6 +51,28 @@ export const RESULTS_CSV_COLUMNS = [
   'Document type',
   'Score',
   'Codes',
+  // Collection metadata (issue 13), after the original columns so existing layouts hold.
+  'Family ID',
+  'Family date',
+  'From',
+  'To',
+  'Cc',
+  'Bcc',
+  'Sent',
+  'Received',
+  'Message-ID',
+  'In-Reply-To',
+  'File created',
+  'File modified',
+  'Author',
+  'Last author',
+  'Source path',
+  'All custodians',
+  'Thread ID',
+  'Inclusive',
+  'Near-duplicate group',
+  'Near-duplicate similarity',
+  'OCR',
 ] as const;
 
 export const PRIVILEGE_LOG_CSV_COLUMNS = [

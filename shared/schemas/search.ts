@@ -177,6 +177,14 @@ export interface SearchHit {
   /** Set on a duplicate listed after its first copy (filters.includeDuplicates). */
   duplicateOf: number | null;
   parentId: number | null;
+  /** Family, thread and near-duplicate group (see DocumentListItem); ocr: text from OCR. */
+  // Optional in the type so hand-built hits (client tests) need not list them; the API sets them.
+  familyId?: number;
+  threadId?: number | null;
+  inclusive?: boolean | null;
+  nearDuplicateGroupId?: number | null;
+  nearDuplicateSimilarity?: number | null;
+  ocr?: boolean;
 }
 
 export interface SearchResponse {

@@ -24,4 +24,6 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'documents.purge': 'Destroy deleted documents for good',
   'documents.redact': 'Mark redactions',
   'productions.manage': 'Build and download productions',
+  'passwords.manage': 'Keep the password list for encrypted files',
+  'relationships.manage': 'Set the near-duplicate threshold',
 };

@@ -23,6 +23,13 @@ export const DOC_TYPE_LABELS: Record<string, string> = {
   text: 'Text',
   markdown: 'Markdown',
   zip: 'Archive',
+  mbox: 'Mailbox',
+  pst: 'Outlook data file',
+  msg: 'Outlook message',
+  xlsx: 'Spreadsheet',
+  csv: 'CSV',
+  pptx: 'Slides',
+  image: 'Image',
   unknown: 'Unknown',
 };
 

@@ -5,6 +5,7 @@ import { formatDate, formatDateTime } from '@/lib/format';
 import { documentOriginalHref } from '../api/get-document';
 import { useDocumentText } from '../api/get-document-text';
 import { docTypeLabel, formatBytes } from '../format';
+import { DocumentRelationships } from './document-relationships';
 import { DocumentStatusCell, IndexStateBadge } from './document-status';
 
 /**
@@ -141,6 +142,8 @@ export function DocumentView({
             </div>
           )}
         </section>
+
+        <DocumentRelationships matterId={matterId} document={document} />
 
         {duplicates.length > 0 ? (
           <section
