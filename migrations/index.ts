@@ -8,6 +8,7 @@ import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
+import * as prioritisedValidation from './2026_12_04_1600_prioritised_validation';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -21,4 +22,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0700_keyword_changes': keywordChanges,
   '2026_12_04_0100_document_families': documentFamilies,
   '2026_12_04_0200_document_metadata': documentMetadata,
+  '2026_12_04_1600_prioritised_validation': prioritisedValidation,
 };

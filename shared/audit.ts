@@ -39,6 +39,13 @@ export const AUDIT_ACTIONS = [
   'saved_search.deleted',
   'export.results',
   'export.privilege_log',
+  'ranking.train_requested',
+  'ranking.trained',
+  'ranking.feedback_search',
+  'ranking.batch_created',
+  'validation.sample_created',
+  'validation.report_viewed',
+  'validation.report_exported',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -80,4 +87,11 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'saved_search.deleted': 'Deleted a saved search',
   'export.results': 'Exported search results',
   'export.privilege_log': 'Exported the privilege log',
+  'ranking.train_requested': 'Asked for the learned ranking to be retrained',
+  'ranking.trained': 'Learned ranking retrained',
+  'ranking.feedback_search': 'Searched for more like the Responsive documents',
+  'ranking.batch_created': 'Created a prioritised batch',
+  'validation.sample_created': 'Drew a validation sample',
+  'validation.report_viewed': 'Viewed a validation report',
+  'validation.report_exported': 'Exported a validation report (CSV)',
 };

@@ -30,6 +30,9 @@ export const MATTER_PERMISSIONS = [
   'index.rebuild',
   'concepts.view',
   'concepts.label',
+  'ranking.train',
+  'validation.view',
+  'validation.run',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -54,6 +57,9 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'index.rebuild': ['lead'],
   'concepts.view': ['lead', 'attorney'],
   'concepts.label': ['lead'],
+  'ranking.train': ['lead', 'attorney'],
+  'validation.view': ['lead', 'attorney'],
+  'validation.run': ['lead'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

@@ -19,4 +19,7 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'index.rebuild': 'Rebuild the concept index',
   'concepts.view': 'Explore the concept space',
   'concepts.label': 'Label concepts',
+  'ranking.train': 'Retrain the learned ranking',
+  'validation.view': 'See recall validation',
+  'validation.run': 'Draw validation samples',
 };
