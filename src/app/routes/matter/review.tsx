@@ -6,39 +6,39 @@ import {
   useNavigate,
   useParams,
   useSearchParams,
-} from 'react-router';
-import { ReviewCaution } from '../../../components/review-caution';
-import { Badge, ErrorPanel, Notice, PageHeader, SkeletonRows } from '../../../components/ui';
+} from 'react-router-dom';
+import { ReviewCaution } from '@/components/review-caution';
+import { Badge, ErrorPanel, Notice, PageHeader, SkeletonRows } from '@/components/ui';
 import {
   type Code,
   activeCodes,
   codesQueryOptions,
   useCodes,
-} from '../../../features/codes/api/get-codes';
-import { useSetDocumentCodes } from '../../../features/codes/api/set-document-codes';
-import { documentOriginalHref } from '../../../features/documents/api/get-document';
-import { docTypeLabel, formatBytes } from '../../../features/documents/format';
+} from '@/features/codes/api/get-codes';
+import { useSetDocumentCodes } from '@/features/codes/api/set-document-codes';
+import { documentOriginalHref } from '@/features/documents/api/get-document';
+import { docTypeLabel, formatBytes } from '@/features/documents/format';
 import {
   type ReviewResponse,
   reviewQueryOptions,
   useReview,
-} from '../../../features/review/api/get-review';
-import { CodingPanel } from '../../../features/review/components/coding-panel';
-import { KeyLegend } from '../../../features/review/components/key-legend';
-import { NotesPanel } from '../../../features/review/components/notes-panel';
-import { PrivilegePanel } from '../../../features/review/components/privilege-panel';
-import { ReviewText } from '../../../features/review/components/review-text';
-import { codeKeyMap, isTypingTarget } from '../../../features/review/keyboard';
-import { useReviewPosition } from '../../../features/review/use-review-position';
+} from '@/features/review/api/get-review';
+import { CodingPanel } from '@/features/review/components/coding-panel';
+import { KeyLegend } from '@/features/review/components/key-legend';
+import { NotesPanel } from '@/features/review/components/notes-panel';
+import { PrivilegePanel } from '@/features/review/components/privilege-panel';
+import { ReviewText } from '@/features/review/components/review-text';
+import { codeKeyMap, isTypingTarget } from '@/features/review/keyboard';
+import { useReviewPosition } from '@/features/review/use-review-position';
 import {
   type SearchState,
   hasSearch,
   parseSearchState,
   searchHref,
-} from '../../../features/search/search-state';
-import { isApiError } from '../../../lib/api-client';
-import { useMatterPermission } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
+} from '@/features/search/search-state';
+import { isApiError } from '@/lib/api-client';
+import { useMatterPermission } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
 import { parseMatterId, useMatterId } from './layout';
 
 function highlightFor(state: SearchState) {

@@ -4,9 +4,9 @@ import {
   useMutation,
   useQueryClient,
 } from '@tanstack/react-query';
-import type { DocumentCodesResponse } from '../../../../shared/schemas/codes';
-import type { CodeRef } from '../../../../shared/schemas/search';
-import { api } from '../../../lib/api-client';
+import type { DocumentCodesResponse } from '@shared/schemas/codes';
+import type { CodeRef } from '@shared/schemas/search';
+import { api } from '@/lib/api-client';
 import { codesQueryKey } from './get-codes';
 import {
   type CodingSnapshot,

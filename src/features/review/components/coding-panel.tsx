@@ -1,10 +1,10 @@
 import type { UseMutationResult } from '@tanstack/react-query';
-import type { AppliedCode, DocumentCodesResponse } from '../../../../shared/schemas/codes';
-import { Notice, describeError } from '../../../components/ui';
-import { cn } from '../../../lib/cn';
-import { formatDateTime } from '../../../lib/format';
-import type { Code } from '../../codes/api/get-codes';
-import type { SetDocumentCodesVars } from '../../codes/api/set-document-codes';
+import type { AppliedCode, DocumentCodesResponse } from '@shared/schemas/codes';
+import { Notice, describeError } from '@/components/ui';
+import { cn } from '@/lib/cn';
+import { formatDateTime } from '@/lib/format';
+import type { Code } from '@/features/codes/api/get-codes';
+import type { SetDocumentCodesVars } from '@/features/codes/api/set-document-codes';
 import { keyOfCode } from '../keyboard';
 import { Kbd } from './key-legend';
 
