@@ -39,7 +39,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     created_by TEXT,
     created_at TEXT NOT NULL
   )`.execute(db);
-  await sql`CREATE INDEX validation_samples_matter ON validation_samples(matter_id, id)`.execute(db);
+  await sql`CREATE INDEX validation_samples_matter ON validation_samples(matter_id, id)`.execute(
+    db,
+  );
   await sql`CREATE TABLE validation_sample_documents (
     sample_id INTEGER NOT NULL REFERENCES validation_samples(id) ON DELETE CASCADE,
     document_id INTEGER NOT NULL REFERENCES documents(id) ON DELETE CASCADE,

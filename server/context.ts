@@ -10,6 +10,7 @@ import { IndexService } from './indexing/service';
 import { buildIndexHandler } from './jobs/build-index';
 import { extractBatchHandler } from './jobs/extract-batch';
 import { JobRunner } from './jobs/runner';
+import { trainRankingHandler } from './jobs/train-ranking';
 import { KeywordIndexCache } from './search/keyword-cache';
 import { BlobStore } from './storage/blob-store';
 import { sweepStaleTempDirs } from './storage/temp-dirs';
@@ -89,6 +90,7 @@ export async function createContext(config: Config): Promise<AppContext> {
     };
     jobs.register('extract-batch', extractBatchHandler(ctx));
     jobs.register('build-index', buildIndexHandler(ctx));
+    jobs.register('train-ranking', trainRankingHandler(ctx));
     await index.recoverInterrupted();
     await jobs.start();
     keyword.warmAll();

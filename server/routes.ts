@@ -16,6 +16,8 @@ import { memberRoutes } from './members/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { prioritisedRoutes } from './prioritised/router';
+import { validationRoutes } from './validation/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -39,4 +41,6 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...prioritisedRoutes,
+  ...validationRoutes,
 ];

@@ -139,13 +139,13 @@ export {
   type RankerModel,
   type RankerOptions,
 } from './learning/ranker';
-export { rocchioVector, rocchioRanking, ROCCHIO_DEFAULTS, type RocchioOptions } from './learning/rocchio';
 export {
-  betaCdf,
-  betaQuantile,
-  normalCdf,
-  normalQuantile,
-} from './stats/distributions';
+  rocchioVector,
+  rocchioRanking,
+  ROCCHIO_DEFAULTS,
+  type RocchioOptions,
+} from './learning/rocchio';
+export { betaCdf, betaQuantile, normalCdf, normalQuantile } from './stats/distributions';
 export {
   clopperPearson,
   wilson,

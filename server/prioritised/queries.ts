@@ -1,8 +1,5 @@
 import type { Kysely, Transaction } from 'kysely';
-import {
-  NOT_RESPONSIVE_CODE,
-  RESPONSIVE_CODE,
-} from '../../shared/schemas/prioritised';
+import { NOT_RESPONSIVE_CODE, RESPONSIVE_CODE } from '../../shared/schemas/prioritised';
 import type { Database } from '../db/schema';
 
 type Executor = Kysely<Database> | Transaction<Database>;

@@ -96,7 +96,9 @@ export async function trainAndRank(
   }
   await progress?.('Reading document terms', 0.05);
   const terms = await termsFor(ctx, matterId, indexId, space, (done, total) =>
-    progress ? progress(`Reading terms of ${done} of ${total} documents`, 0.05 + 0.6 * (done / total)) : Promise.resolve(),
+    progress
+      ? progress(`Reading terms of ${done} of ${total} documents`, 0.05 + 0.6 * (done / total))
+      : Promise.resolve(),
   );
   const trainStart = performance.now();
   const examples: LabelledExample[] = [];

@@ -23,6 +23,8 @@ import type { SearchFilters, SearchMode, SimilarTo } from '../../shared/schemas/
 import type { AppContext } from '../context';
 import { conflict, notFound } from '../http/errors';
 import { duplicatesOf, filteredDocumentIds, findSearchableDocument, restricts } from './queries';
+import { prioritisedResultSet } from '../prioritised/ranking';
+import type { RankingModelInfo } from '../../shared/schemas/prioritised';
 
 /**
  * Concept hits need at least this cosine. Below it a document shares little with the
@@ -64,6 +66,8 @@ export interface RankedSet {
   queryTerms: Set<string>;
   /** The query's nearest terms in the concept space (stems), best first. */
   nearest: { term: string; similarity: number }[];
+  /** Prioritised mode: the learned model that ranked the set (server/prioritised). */
+  model?: RankingModelInfo;
 }
 
 function candidateMask(space: ConceptSpace, ids: number[]): Uint8Array {
@@ -123,6 +127,8 @@ export async function rankResultSet(
   input: RankInput,
   cap: number,
 ): Promise<RankedSet> {
+  if (input.mode === 'prioritised' && !input.similarTo)
+    return prioritisedResultSet(ctx, matterId, input, cap);
   const loaded = await ctx.index.getIndex(matterId);
   const space = loaded?.space ?? null;
   const notices: string[] = [];

@@ -193,6 +193,7 @@ export async function runSearch(
       hits: ranked.ids.length,
       capped: ranked.capped,
       indexVersion: ranked.indexVersion,
+      model: ranked.model ?? null,
       savedSearchId: req.savedSearchId ?? null,
       tookMs,
     },

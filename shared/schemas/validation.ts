@@ -42,7 +42,14 @@ export interface CreateSampleResponse {
 }
 
 export interface SampleResponse {
-  documents: { documentId: number; coded: boolean }[];
+  /** In draw order; controlNumber, title and responsive are for the screen. */
+  documents: {
+    documentId: number;
+    coded: boolean;
+    controlNumber: string;
+    title: string;
+    responsive: boolean;
+  }[];
   coded: number;
   size: number;
   responsive: number;
@@ -53,6 +60,8 @@ export interface SampleResponse {
   /** Elusion: rate x population; prevalence: rate x population (responsive expected). */
   estimatedMissed: number | null;
   recall: { point: number; low: number; high: number } | null;
+  /** Prevalence: rate x population, the responsive documents expected in the collection. */
+  estimatedResponsive: number | null;
   // Context for the screen and the report (beyond the fields the API promises).
   sampleId: number;
   kind: SampleKind;

@@ -10,7 +10,12 @@ import { analyze } from '../text/analyzer';
 import type { ConceptSpace } from '../index/concept-space';
 import { KeywordIndex, keywordQueryTerms } from '../search/keyword-index';
 import { conceptRanking } from '../search/search';
-import { documentExample, strongestTerms, textExample, type TermWeights } from '../learning/features';
+import {
+  documentExample,
+  strongestTerms,
+  textExample,
+  type TermWeights,
+} from '../learning/features';
 import {
   scoreDocuments,
   trainRanker,
@@ -149,7 +154,10 @@ export function simulateReview(
     while (order.length < n && order.filter((j) => relevant.has(j)).length < needed) {
       const examples: LabelledExample[] = [synthetic];
       for (const j of order)
-        examples.push({ ...documentExample(space, j, docTerms[j]), label: relevant.has(j) ? 1 : 0 });
+        examples.push({
+          ...documentExample(space, j, docTerms[j]),
+          label: relevant.has(j) ? 1 : 0,
+        });
       const hasNegative = examples.some((e) => e.label === 0);
       let next: number[];
       if (hasNegative) {
@@ -189,7 +197,11 @@ export function simulateReview(
   return {
     targets,
     queries: results,
-    mean: { bm25: meanOf((q) => q.bm25), concept: meanOf((q) => q.concept), prioritised: meanOf((q) => q.prioritised) },
+    mean: {
+      bm25: meanOf((q) => q.bm25),
+      concept: meanOf((q) => q.concept),
+      prioritised: meanOf((q) => q.prioritised),
+    },
     ms: performance.now() - started,
   };
 }

@@ -53,7 +53,11 @@ export function textExample(space: ConceptSpace, text: string, topTerms = DEFAUL
 }
 
 /** One CSR row per example: columns 0..k-1 the unit concept vector, k + termId the terms. */
-export function featureRows(k: number, nTerms: number, examples: readonly FeatureExample[]): SparseRows {
+export function featureRows(
+  k: number,
+  nTerms: number,
+  examples: readonly FeatureExample[],
+): SparseRows {
   const indptr = new Int32Array(examples.length + 1);
   let nnz = 0;
   for (let i = 0; i < examples.length; i++) {
@@ -64,7 +68,9 @@ export function featureRows(k: number, nTerms: number, examples: readonly Featur
   const values = new Float64Array(nnz);
   examples.forEach((example, i) => {
     if (example.concept.length !== k)
-      throw new RangeError(`example ${i} has ${example.concept.length} concept values, expected ${k}`);
+      throw new RangeError(
+        `example ${i} has ${example.concept.length} concept values, expected ${k}`,
+      );
     let p = indptr[i];
     let sq = 0;
     for (let c = 0; c < k; c++) sq += example.concept[c] * example.concept[c];

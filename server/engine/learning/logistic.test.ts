@@ -16,7 +16,13 @@ function dense(rows: number[][]): SparseRows {
     });
     indptr[i + 1] = indices.length;
   });
-  return { nRows: rows.length, nCols, indptr, indices: Int32Array.from(indices), values: Float64Array.from(values) };
+  return {
+    nRows: rows.length,
+    nCols,
+    indptr,
+    indices: Int32Array.from(indices),
+    values: Float64Array.from(values),
+  };
 }
 
 /**
@@ -134,7 +140,13 @@ describe('L2-regularised logistic regression', () => {
       y.push(z > 0.1 ? 1 : 0);
     }
     const model = fitLogistic(
-      { nRows, nCols, indptr, indices: Int32Array.from(indices), values: Float64Array.from(values) },
+      {
+        nRows,
+        nCols,
+        indptr,
+        indices: Int32Array.from(indices),
+        values: Float64Array.from(values),
+      },
       y,
       { lambda: 0.1 },
     );

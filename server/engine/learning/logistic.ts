@@ -159,7 +159,8 @@ export function fitLogistic(
   let w = new Float64Array(d);
   let b = 0;
   if (options.initial) {
-    if (options.initial.weights.length !== d) throw new RangeError(`initial weights must have ${d} values`);
+    if (options.initial.weights.length !== d)
+      throw new RangeError(`initial weights must have ${d} values`);
     w = Float64Array.from(options.initial.weights);
     b = intercept ? options.initial.bias : 0;
   }

@@ -31,7 +31,8 @@ export function rocchioVector(space: ConceptSpace, options: RocchioOptions): Flo
   const { alpha, beta, gamma } = { ...ROCCHIO_DEFAULTS, ...options };
   const out = new Float64Array(space.k);
   if (options.query) {
-    if (options.query.length !== space.k) throw new RangeError(`query vector must have ${space.k} values`);
+    if (options.query.length !== space.k)
+      throw new RangeError(`query vector must have ${space.k} values`);
     addUnit(out, options.query, alpha);
   }
   const relevant = options.relevant;
@@ -52,8 +53,16 @@ export function rocchioRanking(
   const allow = options.allow ? options.allow.slice() : new Uint8Array(space.nDocs).fill(1);
   for (const j of options.relevant) allow[j] = 0;
   for (const j of options.nonRelevant ?? []) allow[j] = 0;
-  const top = topCosine(space.docMatrix, space.k, space.nDocs, space.inverseNorms(), vector, options.limit, {
-    allow,
-  });
+  const top = topCosine(
+    space.docMatrix,
+    space.k,
+    space.nDocs,
+    space.inverseNorms(),
+    vector,
+    options.limit,
+    {
+      allow,
+    },
+  );
   return Array.from(top.indices, (index, r) => ({ index, score: top.scores[r] }));
 }

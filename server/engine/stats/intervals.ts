@@ -8,7 +8,8 @@ export interface Interval {
 }
 
 function checkCounts(x: number, n: number): void {
-  if (!Number.isInteger(n) || n < 1) throw new RangeError(`n must be a whole number >= 1, got ${n}`);
+  if (!Number.isInteger(n) || n < 1)
+    throw new RangeError(`n must be a whole number >= 1, got ${n}`);
   if (!Number.isInteger(x) || x < 0 || x > n)
     throw new RangeError(`x must be a whole number between 0 and n (${n}), got ${x}`);
 }
@@ -35,7 +36,11 @@ export function clopperPearson(x: number, n: number, confidence = 0.95): Interva
   const alpha = 1 - confidence;
   const low = x === 0 ? 0 : betaQuantile(alpha / 2, x, n - x + 1);
   const high =
-    x === n ? 1 : x === 0 ? 1 - Math.pow(alpha / 2, 1 / n) : betaQuantile(1 - alpha / 2, x + 1, n - x);
+    x === n
+      ? 1
+      : x === 0
+        ? 1 - Math.pow(alpha / 2, 1 / n)
+        : betaQuantile(1 - alpha / 2, x + 1, n - x);
   return { low, high };
 }
 
@@ -68,7 +73,8 @@ export interface SampleSizeOptions {
 export function sampleSize(options: SampleSizeOptions): number {
   const { confidence, margin } = options;
   const p = options.proportion ?? 0.5;
-  if (!(margin > 0 && margin < 1)) throw new RangeError(`margin must be between 0 and 1, got ${margin}`);
+  if (!(margin > 0 && margin < 1))
+    throw new RangeError(`margin must be between 0 and 1, got ${margin}`);
   if (!(p > 0 && p < 1)) throw new RangeError(`proportion must be between 0 and 1, got ${p}`);
   const z = zFor(confidence);
   const n0 = (z * z * p * (1 - p)) / (margin * margin);

@@ -8,8 +8,13 @@ import { mulberry32 } from '../linalg/random';
  * (Knuth, TAOCP vol. 2, Algorithm 3.4.2P) driven by mulberry32(seed) picks the first
  * `size` positions. Every subset of that size is equally likely.
  */
-export function simpleRandomSample(population: readonly number[], size: number, seed: number): number[] {
-  if (!Number.isInteger(size) || size < 0) throw new RangeError(`size must be a whole number >= 0, got ${size}`);
+export function simpleRandomSample(
+  population: readonly number[],
+  size: number,
+  seed: number,
+): number[] {
+  if (!Number.isInteger(size) || size < 0)
+    throw new RangeError(`size must be a whole number >= 0, got ${size}`);
   if (size > population.length)
     throw new RangeError(`size ${size} is larger than the population (${population.length})`);
   const ids = Int32Array.from(new Set(population)).sort();

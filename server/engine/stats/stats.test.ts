@@ -105,7 +105,9 @@ describe('sample size n = z^2 p(1-p) / E^2 with the finite-population correction
       for (const margin of [0.01, 0.02, 0.025, 0.05, 0.1]) {
         expect(sampleSize({ confidence, margin })).toBe(formula(confidence, margin));
         for (const N of [500, 2000, 10000, 1000000])
-          expect(sampleSize({ confidence, margin, population: N })).toBe(formula(confidence, margin, N));
+          expect(sampleSize({ confidence, margin, population: N })).toBe(
+            formula(confidence, margin, N),
+          );
       }
     // Values common in sample-size tables (from memory; they follow from the formula): 95%, +-5%, N = 1000 -> 278; 95%, +-2%, infinite -> 2401; 99%, +-1% -> 16588.
     expect(sampleSize({ confidence: 0.95, margin: 0.05, population: 1000 })).toBe(278);
@@ -149,7 +151,8 @@ describe('simple random sample', () => {
   });
   it('gives each member about the same chance (chi-square over 2000 draws of 1 from 10)', () => {
     const counts = new Array(10).fill(0);
-    for (let seed = 0; seed < 2000; seed++) counts[simpleRandomSample([0, 1, 2, 3, 4, 5, 6, 7, 8, 9], 1, seed)[0]]++;
+    for (let seed = 0; seed < 2000; seed++)
+      counts[simpleRandomSample([0, 1, 2, 3, 4, 5, 6, 7, 8, 9], 1, seed)[0]]++;
     const chi = counts.reduce((s, c) => s + (c - 200) ** 2 / 200, 0);
     // 9 degrees of freedom: P(chi^2 > 27.88) = 0.001 (standard table).
     expect(chi).toBeLessThan(27.88);

@@ -7,6 +7,7 @@ import { ProgressBar } from './progress-bar';
 export const JOB_KIND_LABELS: Record<Job['kind'], string> = {
   'extract-batch': 'Text extraction',
   'build-index': 'Concept index build',
+  'train-ranking': 'Learned ranking training',
 };
 
 const STATUS_LABELS: Record<Job['status'], string> = {
