@@ -15,7 +15,11 @@ export function matterDocumentIds(db: Executor, matterId: number): Promise<numbe
 }
 
 /** Ids of the matter's documents carrying the code. */
-export function documentsWithCode(db: Executor, matterId: number, codeId: number): Promise<number[]> {
+export function documentsWithCode(
+  db: Executor,
+  matterId: number,
+  codeId: number,
+): Promise<number[]> {
   return db
     .selectFrom('document_codes as dc')
     .innerJoin('documents as d', 'd.id', 'dc.document_id')
@@ -68,7 +72,9 @@ export async function sampleDocuments(
           .where('s.sample_id', '=', sampleId)
           .where('dc.code_id', 'in', ids)
           .execute();
-  const responsive = new Set(coded.filter((c) => c.code_id === codes.responsive).map((c) => c.document_id));
+  const responsive = new Set(
+    coded.filter((c) => c.code_id === codes.responsive).map((c) => c.document_id),
+  );
   const codedAny = new Set(coded.map((c) => c.document_id));
   return rows.map((r) => ({
     documentId: r.document_id,

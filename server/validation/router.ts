@@ -42,8 +42,17 @@ export const validationRoutes = [
     schemas: { params: sampleParams, query: sampleQuery },
     summary: 'A sample with its coded share, rate, Clopper-Pearson and Wilson intervals, recall',
     handler: async ({ ctx, matter, params, query, user, ip }): Promise<SampleResponse> => {
-      if (query.report) await recordReportViewed(ctx, matter.matterId, params.sampleId, { id: user.id, email: user.email, ip });
-      const { listing: _listing, ...sample } = await getSample(ctx, matter.matterId, params.sampleId);
+      if (query.report)
+        await recordReportViewed(ctx, matter.matterId, params.sampleId, {
+          id: user.id,
+          email: user.email,
+          ip,
+        });
+      const { listing: _listing, ...sample } = await getSample(
+        ctx,
+        matter.matterId,
+        params.sampleId,
+      );
       return sample;
     },
   }),

@@ -4,7 +4,13 @@
 // n = z^2 p(1-p)/E^2 with the finite-population correction; statistics over the coded
 // part: Clopper-Pearson exact interval and Wilson interval (server/engine/stats).
 import { randomInt } from 'node:crypto';
-import { elusionEstimate, sampleSize, simpleRandomSample, wilson, clopperPearson } from '../engine/index';
+import {
+  elusionEstimate,
+  sampleSize,
+  simpleRandomSample,
+  wilson,
+  clopperPearson,
+} from '../engine/index';
 import type {
   CreateSampleResponse,
   SampleKind,
@@ -170,7 +176,13 @@ export async function getSample(
       estimatedResponsive: null,
     };
   if (sample.kind === 'elusion') {
-    const e = elusionEstimate(responsive, coded, sample.population, sample.produced, sample.confidence);
+    const e = elusionEstimate(
+      responsive,
+      coded,
+      sample.population,
+      sample.produced,
+      sample.confidence,
+    );
     return {
       ...base,
       rate: e.rate,
@@ -229,10 +241,25 @@ export async function sampleReportCsv(
     ['summary', 'coded', s.coded, ''],
     ['summary', 'responsive', s.responsive, ''],
     ['summary', 'rate', pct(s.rate), ''],
-    ['summary', 'clopper-pearson', s.interval ? `${pct(s.interval.low)} to ${pct(s.interval.high)}` : '', ''],
+    [
+      'summary',
+      'clopper-pearson',
+      s.interval ? `${pct(s.interval.low)} to ${pct(s.interval.high)}` : '',
+      '',
+    ],
     ['summary', 'wilson', s.wilson ? `${pct(s.wilson.low)} to ${pct(s.wilson.high)}` : '', ''],
-    ['summary', 'estimated missed', s.estimatedMissed == null ? '' : s.estimatedMissed.toFixed(1), ''],
-    ['summary', 'estimated responsive', s.estimatedResponsive == null ? '' : s.estimatedResponsive.toFixed(1), ''],
+    [
+      'summary',
+      'estimated missed',
+      s.estimatedMissed == null ? '' : s.estimatedMissed.toFixed(1),
+      '',
+    ],
+    [
+      'summary',
+      'estimated responsive',
+      s.estimatedResponsive == null ? '' : s.estimatedResponsive.toFixed(1),
+      '',
+    ],
     [
       'summary',
       'recall',
@@ -263,7 +290,12 @@ export async function sampleReportCsv(
   };
 }
 
-export async function recordReportViewed(ctx: AppContext, matterId: number, sampleId: number, actor: Actor) {
+export async function recordReportViewed(
+  ctx: AppContext,
+  matterId: number,
+  sampleId: number,
+  actor: Actor,
+) {
   const s = await findSample(ctx.db, matterId, sampleId);
   if (!s) throw notFound('Sample');
   await recordAudit(ctx.db, {

@@ -44,7 +44,11 @@ describe('validation samples', () => {
       created_at: now,
     }));
     for (let s = 0; s < rows.length; s += 300) {
-      const inserted = await t.ctx.db.insertInto('documents').values(rows.slice(s, s + 300)).returning('id').execute();
+      const inserted = await t.ctx.db
+        .insertInto('documents')
+        .values(rows.slice(s, s + 300))
+        .returning('id')
+        .execute();
       ids.push(...inserted.map((r) => r.id));
     }
     const codes = (await lead.get(`${base}/codes`)).body.codes as { id: number; name: string }[];
@@ -145,7 +149,9 @@ describe('validation samples', () => {
     const before = await attorney.get(`${base}/validation/samples/${sampleId}`);
     expect(before.body).toMatchObject({ coded: 0, rate: null, interval: null, recall: null });
     // Code 200 of the sample: 5 Responsive, 195 Not responsive.
-    await lead.post(`${base}/codes/bulk`).send({ documentIds: drawn.slice(0, 5), add: [responsive], remove: [] });
+    await lead
+      .post(`${base}/codes/bulk`)
+      .send({ documentIds: drawn.slice(0, 5), add: [responsive], remove: [] });
     await lead
       .post(`${base}/codes/bulk`)
       .send({ documentIds: drawn.slice(5, 200), add: [notResponsive], remove: [] });

@@ -24,6 +24,9 @@ import * as matterLayout from './routes/matter/layout';
 import * as matterReview from './routes/matter/review';
 import * as matterSearch from './routes/matter/search';
 import * as matterUpload from './routes/matter/upload';
+import * as matterPrioritised from './routes/matter/prioritised';
+import * as matterValidation from './routes/matter/validation';
+import * as matterValidationSample from './routes/matter/validation-sample';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteError } from './routes/route-error';
@@ -144,6 +147,20 @@ export function createAppRouter(queryClient: QueryClient) {
               path: 'activity',
               loader: matterActivity.clientLoader(queryClient),
               Component: matterActivity.ActivityRoute,
+            },
+            {
+              path: 'prioritised',
+              loader: matterPrioritised.clientLoader(queryClient),
+              Component: matterPrioritised.PrioritisedRoute,
+            },
+            {
+              path: 'validation',
+              loader: matterValidation.clientLoader(queryClient),
+              Component: matterValidation.ValidationRoute,
+            },
+            {
+              path: 'validation/:sampleId',
+              Component: matterValidationSample.ValidationSampleRoute,
             },
           ],
         },

@@ -75,6 +75,21 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     permission: 'audit.read',
     summary: 'Every sign-in, invitation and access change, newest first.',
   },
+  {
+    id: 'prioritised',
+    label: 'Prioritised review',
+    path: 'prioritised',
+    permission: 'search.run',
+    summary: 'Uncoded documents most likely responsive, learned from the team’s codes.',
+  },
+  {
+    id: 'validation',
+    label: 'Validation',
+    path: 'validation',
+    permission: 'validation.view',
+    summary:
+      'Prevalence and elusion samples with exact confidence intervals and a recall estimate.',
+  },
 ];
 
 export function matterSectionHref(matterId: number, section: MatterSection): string {
