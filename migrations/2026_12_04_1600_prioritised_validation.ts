@@ -19,6 +19,7 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     train_ms REAL NOT NULL,
     rank_ms REAL NOT NULL,
     reason TEXT NOT NULL DEFAULT '',
+    tuning TEXT,
     trained_at TEXT NOT NULL,
     doc_ids BLOB NOT NULL,
     scores BLOB NOT NULL,

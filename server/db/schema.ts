@@ -348,6 +348,8 @@ export interface RankingModelsTable {
   train_ms: number;
   rank_ms: number;
   reason: Generated<string>;
+  /** Cross-validated k / hybrid weight measurement (JSON), once 50 codes of each kind exist. */
+  tuning: string | null;
   trained_at: string;
   /** Int32 document ids and the Float32 scores in the same order. */
   doc_ids: Uint8Array;

@@ -164,3 +164,10 @@ export {
   type SimulationOptions,
   type SimulationResult,
 } from './eval/review-simulation';
+export {
+  tuneFromCodes,
+  type TuneCell,
+  type TuneExample,
+  type TuneOptions,
+  type TuneResult,
+} from './learning/tune';

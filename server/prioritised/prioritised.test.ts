@@ -9,6 +9,12 @@ import { indexMatter } from '../search/test-fixture';
 
 const present = cranfieldAvailable();
 
+/** A job queued in a transaction wakes its loop on the next turn (runner.ts): wait for that, then idle. */
+async function settle(t: TestApp): Promise<void> {
+  await new Promise((resolve) => setImmediate(resolve));
+  await t.ctx.jobs.waitForIdle();
+}
+
 describe.runIf(present)('prioritised review (learned ranking from codes)', () => {
   let t: TestApp;
   let matter: TestMatter;
@@ -100,7 +106,7 @@ describe.runIf(present)('prioritised review (learned ranking from codes)', () =>
   test('10 of each queue the first training in the background; the model and its counts are audited', async () => {
     await code(relevantIds.slice(4, 10), responsive);
     await code(otherIds.slice(0, 10), notResponsive);
-    await t.ctx.jobs.waitForIdle();
+    await settle(t);
     const status = (await reviewer.get(`${base}/prioritised`)).body;
     expect(status.model).toMatchObject({
       version: 1,
@@ -158,14 +164,14 @@ describe.runIf(present)('prioritised review (learned ranking from codes)', () =>
 
   test('25 new codes queue a retrain; on demand the lead may retrain, a reviewer may not', async () => {
     await code(otherIds.slice(10, 35), notResponsive);
-    await t.ctx.jobs.waitForIdle();
+    await settle(t);
     const status = (await reviewer.get(`${base}/prioritised`)).body;
     expect(status.model).toMatchObject({ version: 2, negatives: 35 });
     expect(status.newCodesSinceModel).toBe(0);
     expect((await reviewer.post(`${base}/prioritised/train`)).status).toBe(403);
     const asked = await lead.post(`${base}/prioritised/train`);
     expect(asked.status).toBe(202);
-    await t.ctx.jobs.waitForIdle();
+    await settle(t);
     expect((await reviewer.get(`${base}/prioritised`)).body.model.version).toBe(3);
   });
 
@@ -192,5 +198,78 @@ describe.runIf(present)('prioritised review (learned ranking from codes)', () =>
     const bad = await lead.post(`${base}/prioritised/batches`).send({ size: 0 });
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toMatch(/size/);
+  });
+});
+
+describe.runIf(present)('tuning the space from the codes (50 of each kind)', () => {
+  test('the train-ranking job measures k and the hybrid weight by cross-validation', async () => {
+    const t = await createTestApp();
+    try {
+      const matter = await t.buildMatter();
+      const base = `/api/matters/${matter.id}`;
+      const lead = await t.agentFor(matter.lead);
+      const { docs, qrels } = readCranfield();
+      // Responsive: documents judged relevant to Cranfield queries 157 or 23.
+      const judged = new Set([...qrels.get('157')!.keys(), ...qrels.get('23')!.keys()]);
+      const chosen = [
+        ...docs.filter((d) => judged.has(d.id)).slice(0, 55),
+        ...docs.filter((d) => !judged.has(d.id)).slice(0, 80),
+      ];
+      const now = new Date().toISOString();
+      const ids: number[] = [];
+      for (const [i, d] of chosen.entries()) {
+        const row = await t.ctx.db
+          .insertInto('documents')
+          .values({
+            matter_id: matter.id,
+            control_number: formatControlNumber(matter.controlPrefix, i + 1),
+            original_name: `cran-${d.id}.txt`,
+            original_path: `cran-${d.id}.txt`,
+            sha256: d.id.padStart(64, '0'),
+            mime: 'text/plain',
+            doc_type: 'text',
+            size: d.text.length,
+            title: d.title,
+            extract_status: 'extracted',
+            created_at: now,
+          })
+          .returning('id')
+          .executeTakeFirstOrThrow();
+        await t.ctx.db
+          .insertInto('document_texts')
+          .values({ document_id: row.id, title: d.title, body: d.text })
+          .execute();
+        ids.push(row.id);
+      }
+      await indexMatter(
+        t,
+        matter.id,
+        chosen.map((d, i) => ({ id: ids[i], text: `${d.title}\n${d.text}` })),
+        { k: 40, weighting: 'log-entropy' },
+      );
+      const codes = (await lead.get(`${base}/codes`)).body.codes as { id: number; name: string }[];
+      const id = (name: string) => codes.find((c) => c.name === name)!.id;
+      const nR = chosen.filter((d) => judged.has(d.id)).length;
+      await lead
+        .post(`${base}/codes/bulk`)
+        .send({ documentIds: ids.slice(0, 50), add: [id('Responsive')], remove: [] });
+      await lead
+        .post(`${base}/codes/bulk`)
+        .send({ documentIds: ids.slice(nR, nR + 50), add: [id('Not responsive')], remove: [] });
+      await settle(t);
+      const status = (await lead.get(`${base}/prioritised`)).body;
+      const tuning = status.model.tuning;
+      expect(tuning).not.toBeNull();
+      expect(tuning.folds).toBe(5);
+      expect(tuning.current).toMatchObject({ dims: 40, keywordWeight: 0.3 });
+      // Every measured cell is a mean average precision; the best is the largest.
+      for (const cell of tuning.cells) expect(cell.map).toBeGreaterThan(0);
+      for (const cell of tuning.cells) expect(cell.map).toBeLessThanOrEqual(1);
+      expect(tuning.best.map).toBe(Math.max(...tuning.cells.map((c: { map: number }) => c.map)));
+      // The two kinds come from different queries' judgements: the space separates them.
+      expect(tuning.best.map).toBeGreaterThan(0.7);
+    } finally {
+      await t.close();
+    }
   });
 });

@@ -61,6 +61,7 @@ export function latestModelInfo(db: Executor, matterId: number) {
       'train_ms',
       'rank_ms',
       'reason',
+      'tuning',
       (eb) => eb.fn<number>('length', ['doc_ids']).as('id_bytes'),
     ])
     .where('matter_id', '=', matterId)

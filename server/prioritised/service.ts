@@ -71,6 +71,7 @@ function modelInfo(
     rankMs: row.rank_ms,
     reason: row.reason,
     scored: Number(row.id_bytes) / 4,
+    tuning: row.tuning ? (JSON.parse(row.tuning) as RankingModelInfo['tuning']) : null,
   };
 }
 

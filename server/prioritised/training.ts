@@ -3,6 +3,9 @@
 import {
   analyze,
   documentExample,
+  DEFAULT_HYBRID,
+  keywordQueryTerms,
+  tuneFromCodes,
   scoreDocuments,
   strongestTerms,
   trainRanker,
@@ -12,7 +15,12 @@ import {
   type RankerModel,
   type TermWeights,
 } from '../engine/index';
-import { MIN_CODES_EACH, type RankingModelInfo } from '../../shared/schemas/prioritised';
+import {
+  MIN_CODES_EACH,
+  MIN_CODES_FOR_TUNING,
+  type RankingModelInfo,
+  type TuningResult,
+} from '../../shared/schemas/prioritised';
 import { recordAudit } from '../audit/record';
 import type { AppContext } from '../context';
 import { latestModel, relevanceCodes, relevanceLabels, textsOf } from './queries';
@@ -23,13 +31,19 @@ import { encodeScores } from './scores';
  * memory between retrains: analysing every text is the slow part, and a document's
  * terms change only when the index version does (new vocabulary and weights).
  */
-const termCache = new Map<number, { indexId: number; terms: Map<number, TermWeights | null> }>();
-/** The last model per matter (warm start for the next fit). */
-const lastModel = new Map<number, { indexId: number; model: RankerModel }>();
+interface MatterCache {
+  terms?: { indexId: number; terms: Map<number, TermWeights | null> };
+  model?: { indexId: number; model: RankerModel };
+}
+/** Per context (one per process; tests make several), per matter. */
+const caches = new WeakMap<AppContext, Map<number, MatterCache>>();
 
-export function forgetMatterModels(matterId: number): void {
-  termCache.delete(matterId);
-  lastModel.delete(matterId);
+function cacheOf(ctx: AppContext, matterId: number): MatterCache {
+  let byMatter = caches.get(ctx);
+  if (!byMatter) caches.set(ctx, (byMatter = new Map()));
+  let entry = byMatter.get(matterId);
+  if (!entry) byMatter.set(matterId, (entry = {}));
+  return entry;
 }
 
 async function termsFor(
@@ -39,10 +53,11 @@ async function termsFor(
   space: ConceptSpace,
   onProgress?: (done: number, total: number) => Promise<void>,
 ): Promise<Map<number, TermWeights | null>> {
-  let entry = termCache.get(matterId);
+  const cache = cacheOf(ctx, matterId);
+  let entry = cache.terms;
   if (!entry || entry.indexId !== indexId) {
     entry = { indexId, terms: new Map() };
-    termCache.set(matterId, entry);
+    cache.terms = entry;
   }
   const missing: number[] = [];
   for (let j = 0; j < space.nDocs; j++) {
@@ -102,6 +117,7 @@ export async function trainAndRank(
   );
   const trainStart = performance.now();
   const examples: LabelledExample[] = [];
+  const labelledRows: { index: number; label: 0 | 1 }[] = [];
   for (const [documentId, set] of byDoc) {
     // A document carrying both codes is contradictory: it teaches nothing.
     if (set.size !== 1) continue;
@@ -109,6 +125,7 @@ export async function trainAndRank(
     if (index === undefined) continue;
     const label = set.has(codes.responsive) ? 1 : 0;
     examples.push({ ...documentExample(space, index, terms.get(documentId) ?? null), label });
+    labelledRows.push({ index, label });
   }
   const positives = examples.filter((e) => e.label === 1).length;
   const negatives = examples.length - positives;
@@ -117,12 +134,12 @@ export async function trainAndRank(
       `Training needs at least ${MIN_CODES_EACH} indexed documents coded Responsive and ${MIN_CODES_EACH} coded Not responsive (have ${positives} and ${negatives}).`,
     );
   await progress?.(`Training on ${positives} Responsive and ${negatives} Not responsive`, 0.7);
-  const previous = lastModel.get(matterId);
+  const previous = cacheOf(ctx, matterId).model;
   const model = trainRanker(space, examples, {
     lambda: DEFAULT_RANKER_LAMBDA,
     previous: previous?.indexId === indexId ? previous.model : undefined,
   });
-  lastModel.set(matterId, { indexId, model });
+  cacheOf(ctx, matterId).model = { indexId, model };
   const trainMs = performance.now() - trainStart;
   const rankStart = performance.now();
   const scores = scoreDocuments(space, model, (j) => terms.get(Number(space.docId(j))) ?? null);
@@ -130,6 +147,11 @@ export async function trainAndRank(
   for (let j = 0; j < space.nDocs; j++) ids[j] = Number(space.docId(j));
   const encoded = encodeScores(ids, Float32Array.from(scores));
   const rankMs = performance.now() - rankStart;
+  let tuning: TuningResult | null = null;
+  if (positives >= MIN_CODES_FOR_TUNING && negatives >= MIN_CODES_FOR_TUNING) {
+    await progress?.('Measuring k and the hybrid weight on the codes', 0.9);
+    tuning = await measureTuning(ctx, matterId, space, labelledRows);
+  }
   const prior = await latestModel(ctx.db, matterId);
   const version = (prior?.version ?? 0) + 1;
   const trainedAt = new Date().toISOString();
@@ -143,6 +165,7 @@ export async function trainAndRank(
     rankMs: Math.round(rankMs * 10) / 10,
     reason,
     scored: space.nDocs,
+    tuning,
   };
   await ctx.db.transaction().execute(async (trx) => {
     await trx
@@ -158,6 +181,7 @@ export async function trainAndRank(
         train_ms: info.trainMs,
         rank_ms: info.rankMs,
         reason,
+        tuning: tuning ? JSON.stringify(tuning) : null,
         trained_at: trainedAt,
         doc_ids: encoded.docIds,
         scores: encoded.scores,
@@ -168,8 +192,49 @@ export async function trainAndRank(
       action: 'ranking.trained',
       targetType: 'ranking_model',
       targetId: version,
-      detail: { ...info, newtonIterations: model.logistic.iterations },
+      detail: {
+        ...info,
+        tuning: tuning ? { current: tuning.current, best: tuning.best } : null,
+        newtonIterations: model.logistic.iterations,
+      },
     });
   });
   return info;
+}
+
+/**
+ * Cross-validated measurement of the concept axes and hybrid keyword weight on the
+ * codes (tuneFromCodes), keyword scores from the matter's keyword index (bm25).
+ */
+async function measureTuning(
+  ctx: AppContext,
+  matterId: number,
+  space: ConceptSpace,
+  rows: { index: number; label: 0 | 1 }[],
+): Promise<TuningResult> {
+  const entry = cacheOf(ctx, matterId).terms;
+  const keywordIndex = await ctx.keyword.indexFor(matterId);
+  const result = tuneFromCodes(space, rows, {
+    folds: 5,
+    dims: [25, 50, 100, 150, 200, 300],
+    weights: [0, 0.2, 0.3, 0.5, 0.7],
+    termsOf: (j) => {
+      const t = entry?.terms.get(Number(space.docId(j)));
+      return t ? Array.from(t.ids, (id) => space.labels[id] ?? space.terms[id]) : [];
+    },
+    keyword: (words, candidates) => {
+      const ids = candidates.map((j) => Number(space.docId(j)));
+      const rowOf = new Map(ids.map((id, i) => [id, candidates[i]]));
+      const found = keywordIndex.search(keywordQueryTerms(words.join(' ')).terms, {
+        limit: candidates.length,
+        allow: new Set(ids),
+      });
+      return found.ids.map((id, i) => ({ id: rowOf.get(id)!, score: found.scores[i] }));
+    },
+  });
+  const current =
+    result.cells.find(
+      (c) => c.dims === space.k && c.keywordWeight === DEFAULT_HYBRID.keywordWeight,
+    ) ?? result.cells.find((c) => c.dims === space.k)!;
+  return { folds: result.folds, current, best: result.best, cells: result.cells };
 }

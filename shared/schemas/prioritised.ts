@@ -12,6 +12,24 @@ export const RETRAIN_EVERY = 25;
 export const RESPONSIVE_CODE = 'Responsive';
 export const NOT_RESPONSIVE_CODE = 'Not responsive';
 
+/** Codes of each kind before the space is tuned from them. */
+export const MIN_CODES_FOR_TUNING = 50;
+
+export interface TuningCell {
+  dims: number;
+  keywordWeight: number;
+  /** Mean average precision of held-out Responsive documents (5-fold cross-validation). */
+  map: number;
+}
+
+export interface TuningResult {
+  folds: number;
+  /** The space as served: all k axes, the shipped hybrid weight. */
+  current: TuningCell;
+  best: TuningCell;
+  cells: TuningCell[];
+}
+
 export interface RankingModelInfo {
   version: number;
   indexVersion: number;
@@ -23,6 +41,8 @@ export interface RankingModelInfo {
   reason: string;
   /** Documents the ranking scored. */
   scored: number;
+  /** Measured when 50 codes of each kind exist; null before. */
+  tuning: TuningResult | null;
 }
 
 /** GET /api/matters/:matterId/prioritised */

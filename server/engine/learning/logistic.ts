@@ -28,6 +28,8 @@ export interface LogisticOptions {
   sampleWeights?: ArrayLike<number>;
   /** Fit an intercept (default true). */
   intercept?: boolean;
+  /** Conjugate-gradient steps per Newton step at most (default 100; truncated Newton). */
+  maxCgIterations?: number;
   /** Start from these weights and bias (a warm start from the previous model). */
   initial?: { weights: ArrayLike<number>; bias: number };
 }
@@ -169,6 +171,7 @@ export function fitLogistic(
   const curvature = new Float64Array(x.nRows);
   const xv = new Float64Array(x.nRows);
   const diagonal = new Float64Array(d + 1);
+  const cgLimit = Math.min(2 * (d + 1), options.maxCgIterations ?? 100);
   // Hessian-vector product: H v = X~^T D X~ v + lambda [v_w; 0], X~ = [X 1].
   const hessianTimes = (v: Float64Array, out: Float64Array) => {
     linearScores(x, v, intercept ? v[d] : 0, xv);
@@ -210,7 +213,7 @@ export function fitLogistic(
     const hp = new Float64Array(d + 1);
     let rz = dot(r, zr);
     let rr = dot(r, r);
-    for (let it = 0; it < 2 * (d + 1) && Math.sqrt(rr) > target; it++) {
+    for (let it = 0; it < cgLimit && Math.sqrt(rr) > target; it++) {
       hessianTimes(direction, hp);
       const curv = dot(direction, hp);
       if (!(curv > 0)) break;

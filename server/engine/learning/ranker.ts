@@ -41,7 +41,29 @@ export function trainRanker(
     throw new RangeError(
       `training needs both kinds of example (have ${positives} positive, ${negatives} negative)`,
     );
-  const x = featureRows(space.k, space.nTerms, examples);
+  const k = space.k;
+  const full = featureRows(k, space.nTerms, examples);
+  // Only the columns the training rows use: a term no example holds has gradient
+  // lambda * w there, so its weight at the optimum is exactly 0. Fitting over the used
+  // columns gives the same model with vectors of thousands, not the whole vocabulary.
+  const columnOf = new Int32Array(full.nCols).fill(-1);
+  const used: number[] = [];
+  for (let c = 0; c < k; c++) {
+    columnOf[c] = c;
+    used.push(c);
+  }
+  for (let p = 0; p < full.indptr[full.nRows]; p++) {
+    const c = full.indices[p];
+    if (columnOf[c] < 0) {
+      columnOf[c] = used.length;
+      used.push(c);
+    }
+  }
+  const x = {
+    ...full,
+    nCols: used.length,
+    indices: Int32Array.from(full.indices, (c) => columnOf[c]),
+  };
   const y = Float64Array.from(examples, (e) => e.label);
   const balanced = options.balanced ?? true;
   const weights = balanced
@@ -49,15 +71,21 @@ export function trainRanker(
         e.label === 1 ? examples.length / (2 * positives) : examples.length / (2 * negatives),
       )
     : undefined;
-  const logistic = fitLogistic(x, y, {
+  const previous =
+    options.previous && options.previous.k === k && options.previous.nTerms === space.nTerms
+      ? options.previous.logistic
+      : undefined;
+  const compact = fitLogistic(x, y, {
     lambda: options.lambda ?? DEFAULT_RANKER_LAMBDA,
     sampleWeights: weights,
     tolerance: options.tolerance ?? 1e-6,
-    initial:
-      options.previous && options.previous.k === space.k && options.previous.nTerms === space.nTerms
-        ? { weights: options.previous.logistic.weights, bias: options.previous.logistic.bias }
-        : undefined,
+    initial: previous
+      ? { weights: Float64Array.from(used, (c) => previous.weights[c]), bias: previous.bias }
+      : undefined,
   });
+  const expanded = new Float64Array(full.nCols);
+  used.forEach((c, j) => (expanded[c] = compact.weights[j]));
+  const logistic = { ...compact, weights: expanded };
   return { k: space.k, nTerms: space.nTerms, logistic, positives, negatives };
 }
 

@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import { MIN_CODES_EACH, RETRAIN_EVERY } from '@shared/schemas/prioritised';
+import { MIN_CODES_EACH, MIN_CODES_FOR_TUNING, RETRAIN_EVERY } from '@shared/schemas/prioritised';
 import type { PrioritisedStatusResponse } from '@shared/schemas/prioritised';
 import { ReviewCaution } from '@/components/review-caution';
 import {
@@ -78,6 +78,30 @@ export function PrioritisedReview({ matterId }: { matterId: number }) {
                 {Math.round(s.model.rankMs)} ms. {s.newCodesSinceModel} new code
                 {s.newCodesSinceModel === 1 ? '' : 's'} since; it retrains after every{' '}
                 {RETRAIN_EVERY}.
+              </p>
+            ) : null}
+            {s.model?.tuning ? (
+              <Notice
+                tone="info"
+                title="Tuning the concept space from the codes"
+                data-testid="prioritised-tuning"
+              >
+                Measured on the team’s codes by {s.model.tuning.folds}-fold cross-validation (mean
+                average precision of held-out Responsive documents): the space as served (
+                {s.model.tuning.current.dims} concept axes, keyword weight{' '}
+                {s.model.tuning.current.keywordWeight}) scores{' '}
+                {s.model.tuning.current.map.toFixed(3)}; {s.model.tuning.best.dims} axes with
+                keyword weight {s.model.tuning.best.keywordWeight} scores{' '}
+                {s.model.tuning.best.map.toFixed(3)} (
+                {s.model.tuning.best.map - s.model.tuning.current.map >= 0 ? '+' : ''}
+                {(s.model.tuning.best.map - s.model.tuning.current.map).toFixed(3)}). A
+                recommendation for the next rebuild, not applied automatically.
+              </Notice>
+            ) : s.model ? (
+              <p className="text-[13px] text-ink-muted">
+                With {MIN_CODES_FOR_TUNING} codes of each kind, Quarry also measures which number of
+                concept axes and which hybrid weight would rank best, as a recommendation for the
+                next rebuild.
               </p>
             ) : null}
             <div className="flex flex-wrap items-center gap-2">
