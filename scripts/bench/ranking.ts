@@ -92,7 +92,7 @@ interface Row {
   iterations: number;
 }
 const rows: Row[] = [];
-for (const coded of (process.env.CODED ?? "500,2000,10000").split(",").map(Number)) {
+for (const coded of (process.env.CODED ?? '500,2000,10000').split(',').map(Number)) {
   const row: Row = { coded, trainMs: [], rankMs: [], iterations: 0 };
   for (let rep = 0; rep < 3; rep++) {
     const examples: LabelledExample[] = [];
