@@ -8,6 +8,9 @@ import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
+import * as authHardening from './2026_12_04_1100_auth_hardening';
+import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
+import * as productions from './2026_12_04_1500_productions';
 import * as prioritisedValidation from './2026_12_04_1600_prioritised_validation';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
@@ -22,5 +25,8 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0700_keyword_changes': keywordChanges,
   '2026_12_04_0100_document_families': documentFamilies,
   '2026_12_04_0200_document_metadata': documentMetadata,
+  '2026_12_04_1100_auth_hardening': authHardening,
+  '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
+  '2026_12_04_1500_productions': productions,
   '2026_12_04_1600_prioritised_validation': prioritisedValidation,
 };

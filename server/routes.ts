@@ -13,9 +13,13 @@ import { invitationRoutes } from './invitations/router';
 import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
+import { productionRoutes } from './productions/router';
+import { redactionRoutes } from './redactions/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { holdRoutes } from './holds/router';
+import { trashRoutes } from './trash/router';
 import { prioritisedRoutes } from './prioritised/router';
 import { validationRoutes } from './validation/router';
 
@@ -41,6 +45,10 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...holdRoutes,
+  ...trashRoutes,
+  ...redactionRoutes,
+  ...productionRoutes,
   ...prioritisedRoutes,
   ...validationRoutes,
 ];

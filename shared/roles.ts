@@ -30,6 +30,11 @@ export const MATTER_PERMISSIONS = [
   'index.rebuild',
   'concepts.view',
   'concepts.label',
+  'holds.manage',
+  'documents.restore',
+  'documents.purge',
+  'documents.redact',
+  'productions.manage',
   'ranking.train',
   'validation.view',
   'validation.run',
@@ -57,6 +62,14 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'index.rebuild': ['lead'],
   'concepts.view': ['lead', 'attorney'],
   'concepts.label': ['lead'],
+  // Legal holds and the trash: only the matter lead sets or releases a hold, restores a
+  // deleted document or destroys it for good.
+  'holds.manage': ['lead'],
+  'documents.restore': ['lead'],
+  'documents.purge': ['lead'],
+  // Redactions are marked in review; they only take effect when a production burns them in.
+  'documents.redact': everyone,
+  'productions.manage': ['lead', 'attorney'],
   'ranking.train': ['lead', 'attorney'],
   'validation.view': ['lead', 'attorney'],
   'validation.run': ['lead'],

@@ -18,12 +18,18 @@ export interface UsersTable {
   disabled_at: string | null;
   password_changed_at: string;
   created_at: string;
+  /** 1: a firm admin set a temporary password; nothing but changing it is allowed. */
+  password_must_change: Generated<number>;
+  /** When a temporary password stops working (ISO 8601); null for chosen passwords. */
+  password_expires_at: Generated<string | null>;
 }
 
 export interface SessionsTable {
   id: string;
   user_id: string;
   expires_at: number;
+  /** Unix seconds; the absolute lifetime counts from here. */
+  created_at: number;
 }
 
 export interface MattersTable {
@@ -287,6 +293,114 @@ export interface AuditEventsTable {
   ip: string | null;
 }
 
+/** A legal hold on a matter (custodian_id null) or one custodian (migration 2026_12_04_1180). */
+export interface LegalHoldsTable {
+  id: Generated<number>;
+  matter_id: number;
+  custodian_id: number | null;
+  reason: string;
+  set_by: string | null;
+  set_at: string;
+  released_by: string | null;
+  released_at: string | null;
+  release_reason: string | null;
+}
+
+/** A deleted coded document awaiting restore or purge (server/trash). */
+export interface DocumentTrashTable {
+  id: Generated<number>;
+  matter_id: number;
+  document_id: number;
+  control_number: string;
+  title: Generated<string>;
+  original_name: string;
+  document_count: number;
+  /** JSON number[]: custodians of the document and its attachments (holds apply to them). */
+  custodian_ids: Generated<string>;
+  /** JSON [{ documentId, controlNumber, code }]: the codes it carried. */
+  codes: Generated<string>;
+  reason: string;
+  trashed_by: string | null;
+  trashed_at: string;
+  /** JSON snapshot of every row that referenced the document (server/trash/snapshot.ts). */
+  snapshot: string;
+}
+
+export interface DocumentTrashBlobsTable {
+  trash_id: number;
+  sha256: string;
+}
+
+/** A redaction marked on a document (server/redactions); burned into produced pages only. */
+export interface RedactionsTable {
+  id: Generated<number>;
+  matter_id: number;
+  document_id: number;
+  kind: 'span' | 'pattern' | 'box';
+  /** span: character offsets into the document's extracted body text. */
+  start_offset: number | null;
+  end_offset: number | null;
+  /** pattern: a literal term, or a format mask ('#' a digit, '@' a letter). */
+  pattern: string | null;
+  pattern_kind: 'term' | 'format' | null;
+  /** box: 1-based page of the original PDF and the box as fractions of the page, from top left. */
+  page: number | null;
+  x: number | null;
+  y: number | null;
+  width: number | null;
+  height: number | null;
+  reason: string;
+  created_by: string;
+  created_at: string;
+  removed_at: string | null;
+  removed_by: string | null;
+  /** The built production that burned this redaction in (it can no longer be removed). */
+  produced_in: number | null;
+}
+
+export type ProductionState = 'draft' | 'building' | 'built' | 'failed';
+
+export interface ProductionsTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  /** JSON: { savedSearchId } or { codes, excludeCodes } as requested. */
+  source: string;
+  bates_prefix: string;
+  bates_start: number;
+  bates_padding: number;
+  legend: Generated<string>;
+  /** JSON [{ codeId, legend }]: a per-document legend from a code. */
+  legend_codes: Generated<string>;
+  privileged: 'withhold' | 'redact';
+  natives: Generated<string>;
+  state: Generated<ProductionState>;
+  job_id: number | null;
+  first_seq: number | null;
+  last_seq: number | null;
+  pages: number | null;
+  zip_sha256: string | null;
+  zip_size: number | null;
+  error: string | null;
+  created_by: string;
+  created_at: string;
+  built_at: string | null;
+}
+
+export interface ProductionDocumentsTable {
+  production_id: number;
+  document_id: number;
+  /** source: chosen by the production's source; added: a family member added by the user; slip-sheet: a family member replaced by a slip sheet. */
+  origin: 'source' | 'added' | 'slip-sheet';
+  position: number | null;
+  /** After the build: produced, redacted, withheld or native. */
+  treatment: string | null;
+  begin_seq: number | null;
+  end_seq: number | null;
+  pages: number | null;
+  legend: string | null;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -316,6 +430,12 @@ export interface Database {
   notes: NotesTable;
   saved_searches: SavedSearchesTable;
   audit_events: AuditEventsTable;
+  legal_holds: LegalHoldsTable;
+  document_trash: DocumentTrashTable;
+  document_trash_blobs: DocumentTrashBlobsTable;
+  redactions: RedactionsTable;
+  productions: ProductionsTable;
+  production_documents: ProductionDocumentsTable;
   ranking_models: RankingModelsTable;
   validation_samples: ValidationSamplesTable;
   validation_sample_documents: ValidationSampleDocumentsTable;

@@ -4,10 +4,11 @@
 // a half-written blob and an existing blob is never overwritten.
 import { createHash, randomUUID } from 'node:crypto';
 import { createReadStream, createWriteStream, type ReadStream } from 'node:fs';
-import { link, mkdir, open, rename, rm, stat, unlink } from 'node:fs/promises';
+import { link, mkdir, open, rename, rm, rmdir, stat, unlink } from 'node:fs/promises';
 import path from 'node:path';
 import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
+import { PRIVATE_DIR_MODE, PRIVATE_FILE_MODE } from './file-modes';
 
 export interface StoredBlob {
   sha256: string;
@@ -66,7 +67,8 @@ export class BlobStore {
   private async store(
     write: (hasher: { stream: Transform; sink: NodeJS.WritableStream }) => Promise<void>,
   ): Promise<StoredBlob> {
-    await mkdir(this.incoming, { recursive: true });
+    // Owner-only: originals are the matter's documents (0700 folders, 0600 files).
+    await mkdir(this.incoming, { recursive: true, mode: PRIVATE_DIR_MODE });
     const temp = path.join(this.incoming, `${randomUUID()}.part`);
     const hash = createHash('sha256');
     let size = 0;
@@ -78,14 +80,17 @@ export class BlobStore {
       },
     });
     try {
-      await write({ stream, sink: createWriteStream(temp, { flags: 'wx' }) });
+      await write({
+        stream,
+        sink: createWriteStream(temp, { flags: 'wx', mode: PRIVATE_FILE_MODE }),
+      });
       // Flush to disk before the blob becomes visible under its final name.
       const handle = await open(temp, 'r');
       await handle.sync();
       await handle.close();
       const sha256 = hash.digest('hex');
       const final = this.pathOf(sha256);
-      await mkdir(path.dirname(final), { recursive: true });
+      await mkdir(path.dirname(final), { recursive: true, mode: PRIVATE_DIR_MODE });
       let created = true;
       try {
         // link() fails with EEXIST instead of replacing: an existing blob is never overwritten.
@@ -103,6 +108,24 @@ export class BlobStore {
     } finally {
       await unlink(temp).catch(() => undefined);
     }
+  }
+
+  /**
+   * Removes a blob for good (a purged document's original). The caller decides that no
+   * document still needs it: the store does not know who refers to what. Empty ab/cd
+   * folders are removed too. Returns whether a file was there.
+   */
+  async delete(sha256: string): Promise<boolean> {
+    const file = this.pathOf(sha256);
+    try {
+      await unlink(file);
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code === 'ENOENT') return false;
+      throw error;
+    }
+    for (const dir of [path.dirname(file), path.dirname(path.dirname(file))])
+      await rmdir(dir).catch(() => undefined); // not empty: another blob lives there
+    return true;
   }
 
   /** Removes leftovers of interrupted writes (call at start-up). */

@@ -21,8 +21,10 @@ import * as matterDocument from './routes/matter/documents-item';
 import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
+import * as matterProductions from './routes/matter/productions';
 import * as matterReview from './routes/matter/review';
 import * as matterSearch from './routes/matter/search';
+import * as matterTrash from './routes/matter/trash';
 import * as matterUpload from './routes/matter/upload';
 import * as matterPrioritised from './routes/matter/prioritised';
 import * as matterValidation from './routes/matter/validation';
@@ -148,6 +150,12 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterActivity.clientLoader(queryClient),
               Component: matterActivity.ActivityRoute,
             },
+            {
+              path: 'trash',
+              loader: matterTrash.clientLoader(queryClient),
+              Component: matterTrash.TrashRoute,
+            },
+            { path: 'productions', Component: matterProductions.ProductionsRoute },
             {
               path: 'prioritised',
               loader: matterPrioritised.clientLoader(queryClient),

@@ -62,6 +62,13 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     summary: 'Add files or a .zip for a custodian and follow their extraction and indexing.',
   },
   {
+    id: 'productions',
+    label: 'Productions',
+    path: 'productions',
+    permission: 'productions.manage',
+    summary: 'Bates-numbered production sets with redactions burned in, built and downloaded.',
+  },
+  {
     id: 'access',
     label: 'Access',
     path: 'access',
@@ -74,6 +81,13 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     path: 'activity',
     permission: 'audit.read',
     summary: 'Every sign-in, invitation and access change, newest first.',
+  },
+  {
+    id: 'trash',
+    label: 'Trash',
+    path: 'trash',
+    permission: 'documents.delete',
+    summary: 'Deleted coded documents: restore them, or purge them for good.',
   },
   {
     id: 'prioritised',

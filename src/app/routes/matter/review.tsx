@@ -37,6 +37,7 @@ import {
   searchHref,
 } from '@/features/search/search-state';
 import { isApiError } from '@/lib/api-client';
+import { RedactionPanel } from '@/features/redactions/components/redaction-panel';
 import { useMatterPermission } from '@/lib/authorization';
 import { formatDateTime } from '@/lib/format';
 import { parseMatterId, useMatterId } from './layout';
@@ -101,6 +102,7 @@ function ReviewPage({ matterId, docId }: { matterId: number; docId: number }) {
   const coding = useSetDocumentCodes(matterId);
   const nav = useReviewPosition(matterId, fromSearch, position);
   const canCode = useMatterPermission('documents.code');
+  const canRedact = useMatterPermission('documents.redact');
   const canSearch = useMatterPermission('search.run');
   const noteRef = useRef<HTMLTextAreaElement>(null);
   const [legendOpen, setLegendOpen] = useState(true);
@@ -255,6 +257,13 @@ function ReviewPage({ matterId, docId }: { matterId: number; docId: number }) {
               canEdit={canCode}
             />
           ) : null}
+          <RedactionPanel
+            matterId={matterId}
+            documentId={doc.id}
+            body={data.text.body}
+            isPdf={doc.mime === 'application/pdf'}
+            canRedact={canRedact}
+          />
           <NotesPanel
             matterId={matterId}
             docId={doc.id}

@@ -7,6 +7,7 @@ import { ProgressBar } from './progress-bar';
 export const JOB_KIND_LABELS: Record<Job['kind'], string> = {
   'extract-batch': 'Text extraction',
   'build-index': 'Concept index build',
+  'build-production': 'Production build',
   'train-ranking': 'Learned ranking training',
 };
 
