@@ -13,6 +13,7 @@ import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
 import * as exactWordsIndex from './2026_12_04_1200_exact_words_index';
 import * as documentRelationships from './2026_12_04_1300_document_relationships';
 import * as productions from './2026_12_04_1500_productions';
+import * as prioritisedValidation from './2026_12_04_1600_prioritised_validation';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -31,4 +32,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_1200_exact_words_index': exactWordsIndex,
   '2026_12_04_1300_document_relationships': documentRelationships,
   '2026_12_04_1500_productions': productions,
+  '2026_12_04_1600_prioritised_validation': prioritisedValidation,
 };

@@ -10,6 +10,7 @@ import { buildIndexHandler } from './jobs/build-index';
 import { extractBatchHandler } from './jobs/extract-batch';
 import { buildProductionHandler } from './productions/build';
 import { JobRunner } from './jobs/runner';
+import { trainRankingHandler } from './jobs/train-ranking';
 import { KeywordIndexCache } from './search/keyword-cache';
 import { conceptGroupingHandler } from './concepts/grouping-job';
 import { BlobStore } from './storage/blob-store';
@@ -93,6 +94,7 @@ export async function createContext(config: Config): Promise<AppContext> {
     jobs.register('build-index', buildIndexHandler(ctx));
     jobs.register('build-production', buildProductionHandler(ctx));
     jobs.register('concept-grouping', conceptGroupingHandler(config.dbFile));
+    jobs.register('train-ranking', trainRankingHandler(ctx));
     await index.recoverInterrupted();
     await jobs.start();
     index.startRecovery();

@@ -23,6 +23,8 @@ import { trashRoutes } from './trash/router';
 import { searchTermReportRoutes } from './search-term-report/router';
 import { relationshipRoutes } from './relationships/router';
 import { passwordRoutes } from './passwords/router';
+import { prioritisedRoutes } from './prioritised/router';
+import { validationRoutes } from './validation/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -53,4 +55,6 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...searchTermReportRoutes,
   ...relationshipRoutes,
   ...passwordRoutes,
+  ...prioritisedRoutes,
+  ...validationRoutes,
 ];

@@ -57,6 +57,13 @@ export const AUDIT_ACTIONS = [
   'password.added',
   'password.removed',
   'near_duplicates.threshold_changed',
+  'ranking.train_requested',
+  'ranking.trained',
+  'ranking.feedback_search',
+  'ranking.batch_created',
+  'validation.sample_created',
+  'validation.report_viewed',
+  'validation.report_exported',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -116,4 +123,11 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'password.added': 'Added a password to the password list',
   'password.removed': 'Removed a password from the password list',
   'near_duplicates.threshold_changed': 'Changed the near-duplicate threshold',
+  'ranking.train_requested': 'Asked for the learned ranking to be retrained',
+  'ranking.trained': 'Learned ranking retrained',
+  'ranking.feedback_search': 'Searched for more like the Responsive documents',
+  'ranking.batch_created': 'Created a prioritised batch',
+  'validation.sample_created': 'Drew a validation sample',
+  'validation.report_viewed': 'Viewed a validation report',
+  'validation.report_exported': 'Exported a validation report (CSV)',
 };

@@ -37,6 +37,9 @@ export const MATTER_PERMISSIONS = [
   'productions.manage',
   'passwords.manage',
   'relationships.manage',
+  'ranking.train',
+  'validation.view',
+  'validation.run',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -71,6 +74,9 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'productions.manage': ['lead', 'attorney'],
   'passwords.manage': ['lead'],
   'relationships.manage': ['lead'],
+  'ranking.train': ['lead', 'attorney'],
+  'validation.view': ['lead', 'attorney'],
+  'validation.run': ['lead'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

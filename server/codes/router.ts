@@ -12,6 +12,7 @@ import {
 import { matterParams } from '../../shared/schemas/common';
 import { documentParams } from '../../shared/schemas/documents';
 import { defineRoute } from '../http/route';
+import { afterCodingQuietly } from '../prioritised/hooks';
 import {
   archiveCode,
   bulkCode,
@@ -75,8 +76,15 @@ export const codeRoutes = [
     access: { matter: 'documents.code' },
     schemas: { params: matterParams, body: bulkCodingSchema },
     summary: 'Add and remove codes on many documents (one audit row per document changed)',
-    handler: ({ ctx, matter, body, user, ip }): Promise<BulkCodingResponse> =>
-      bulkCode(ctx.db, matter.matterId, body, { id: user.id, email: user.email, ip }),
+    handler: async ({ ctx, matter, body, user, ip }): Promise<BulkCodingResponse> => {
+      const result = await bulkCode(ctx.db, matter.matterId, body, {
+        id: user.id,
+        email: user.email,
+        ip,
+      });
+      await afterCodingQuietly(ctx, matter.matterId);
+      return result;
+    },
   }),
   defineRoute({
     method: 'put',
@@ -84,11 +92,14 @@ export const codeRoutes = [
     access: { matter: 'documents.code' },
     schemas: { params: documentParams, body: setDocumentCodesSchema },
     summary: "Set a document's codes",
-    handler: ({ ctx, matter, params, body, user, ip }): Promise<DocumentCodesResponse> =>
-      setDocumentCodes(ctx.db, matter.matterId, params.docId, body.codeIds, {
+    handler: async ({ ctx, matter, params, body, user, ip }): Promise<DocumentCodesResponse> => {
+      const result = await setDocumentCodes(ctx.db, matter.matterId, params.docId, body.codeIds, {
         id: user.id,
         email: user.email,
         ip,
-      }),
+      });
+      await afterCodingQuietly(ctx, matter.matterId);
+      return result;
+    },
   }),
 ];

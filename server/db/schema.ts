@@ -468,6 +468,9 @@ export interface Database {
   redactions: RedactionsTable;
   productions: ProductionsTable;
   production_documents: ProductionDocumentsTable;
+  ranking_models: RankingModelsTable;
+  validation_samples: ValidationSamplesTable;
+  validation_sample_documents: ValidationSampleDocumentsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
@@ -482,3 +485,48 @@ export type JobRow = Selectable<JobsTable>;
 export type IndexVersionRow = Selectable<IndexVersionsTable>;
 export type CodeRow = Selectable<CodesTable>;
 export type AuditEventRow = Selectable<AuditEventsTable>;
+
+/** A learned ranking of a matter (server/prioritised): counts, timing, and its scores. */
+export interface RankingModelsTable {
+  id: Generated<number>;
+  matter_id: number;
+  version: number;
+  index_version: number;
+  positives: number;
+  negatives: number;
+  /** Latest coded_at among the codes it was trained on. */
+  coded_through: string;
+  lambda: number;
+  train_ms: number;
+  rank_ms: number;
+  reason: Generated<string>;
+  /** Cross-validated k / hybrid weight measurement (JSON), once 50 codes of each kind exist. */
+  tuning: string | null;
+  trained_at: string;
+  /** Int32 document ids and the Float32 scores in the same order. */
+  doc_ids: Uint8Array;
+  scores: Uint8Array;
+}
+
+export interface ValidationSamplesTable {
+  id: Generated<number>;
+  matter_id: number;
+  kind: 'prevalence' | 'elusion';
+  confidence: number;
+  margin: number;
+  seed: number;
+  population: number;
+  population_rule: string;
+  size: number;
+  /** Documents coded Responsive when the sample was drawn. */
+  produced: number;
+  batch_id: number | null;
+  created_by: string | null;
+  created_at: string;
+}
+
+export interface ValidationSampleDocumentsTable {
+  sample_id: number;
+  document_id: number;
+  position: number;
+}

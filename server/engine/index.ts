@@ -143,3 +143,60 @@ export {
   type QueryField,
 } from './search/query-language';
 export { ftsRawTokens, porterStem } from './search/fts5-tokens';
+export {
+  fitLogistic,
+  predictProbabilities,
+  type LogisticModel,
+  type LogisticOptions,
+  type SparseRows,
+} from './learning/logistic';
+export {
+  strongestTerms,
+  documentExample,
+  textExample,
+  featureRows,
+  DEFAULT_TOP_TERMS,
+  type FeatureExample,
+  type TermWeights,
+} from './learning/features';
+export {
+  trainRanker,
+  scoreDocuments,
+  topIndices,
+  DEFAULT_RANKER_LAMBDA,
+  type LabelledExample,
+  type RankerModel,
+  type RankerOptions,
+} from './learning/ranker';
+export {
+  rocchioVector,
+  rocchioRanking,
+  ROCCHIO_DEFAULTS,
+  type RocchioOptions,
+} from './learning/rocchio';
+export { betaCdf, betaQuantile, normalCdf, normalQuantile } from './stats/distributions';
+export {
+  clopperPearson,
+  wilson,
+  zFor,
+  sampleSize,
+  elusionEstimate,
+  type ElusionEstimate,
+  type Interval,
+  type SampleSizeOptions,
+} from './stats/intervals';
+export { simpleRandomSample } from './stats/sample';
+export {
+  simulateReview,
+  reviewedToReach,
+  type QuerySimulation,
+  type SimulationOptions,
+  type SimulationResult,
+} from './eval/review-simulation';
+export {
+  tuneFromCodes,
+  type TuneCell,
+  type TuneExample,
+  type TuneOptions,
+  type TuneResult,
+} from './learning/tune';

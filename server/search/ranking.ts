@@ -24,6 +24,8 @@ import type { AppContext } from '../context';
 import { conflict, notFound } from '../http/errors';
 import { duplicatesOf, filteredDocumentIds, findSearchableDocument, restricts } from './queries';
 import { booleanRanking, parseSearchQuery, type BooleanRanking } from './boolean';
+import { prioritisedResultSet } from '../prioritised/ranking';
+import type { RankingModelInfo } from '../../shared/schemas/prioritised';
 
 /**
  * Concept hits need at least this cosine. Below it a document shares little with the
@@ -67,6 +69,8 @@ export interface RankedSet {
   nearest: { term: string; similarity: number }[];
   /** The cosine the list was cut at (concept lists of plain queries), else undefined. */
   conceptCutoff?: number;
+  /** Prioritised mode: the learned model that ranked the set (server/prioritised). */
+  model?: RankingModelInfo;
 }
 
 function candidateMask(space: ConceptSpace, ids: number[]): Uint8Array {
@@ -126,6 +130,8 @@ export async function rankResultSet(
   input: RankInput,
   cap: number,
 ): Promise<RankedSet> {
+  if (input.mode === 'prioritised' && !input.similarTo)
+    return prioritisedResultSet(ctx, matterId, input, cap);
   const loaded = await ctx.index.getIndex(matterId);
   const space = loaded?.space ?? null;
   const notices: string[] = [];

@@ -244,6 +244,7 @@ async function searchNow(
       hits: ranked.ids.length,
       capped: ranked.capped,
       indexVersion: ranked.indexVersion,
+      model: ranked.model ?? null,
       savedSearchId: req.savedSearchId ?? null,
       tookMs,
     },

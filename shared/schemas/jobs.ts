@@ -9,6 +9,7 @@ export const JOB_KINDS = [
   'build-index',
   'build-production',
   'concept-grouping',
+  'train-ranking',
 ] as const;
 export type JobKind = (typeof JOB_KINDS)[number];
 

@@ -12,7 +12,9 @@ import { idSchema, text } from './common';
 // { similarTo: { documentId: docId } } with the default filters, for a plain link.
 // "More like this" always runs in the concept space (mode is reported as 'concept').
 
-export const SEARCH_MODES = ['concept', 'keyword', 'hybrid'] as const;
+// 'prioritised': the learned ranking from the team's codes (server/prioritised); the
+// query is optional there and, when given, keeps documents holding one of its words.
+export const SEARCH_MODES = ['concept', 'keyword', 'hybrid', 'prioritised'] as const;
 export type SearchMode = (typeof SEARCH_MODES)[number];
 
 export const SORT_FIELDS = [
@@ -116,10 +118,15 @@ export const searchRequestSchema = z
     /** Set when re-running a saved search (recorded in the audit log). */
     savedSearchId: idSchema.optional(),
   })
-  .refine((r) => (r.query !== undefined && r.query.trim() !== '') !== (r.similarTo !== undefined), {
-    message: 'give either a query or similarTo, not both',
-    path: ['query'],
-  });
+  .refine(
+    (r) =>
+      (r.mode === 'prioritised' && r.similarTo === undefined) ||
+      (r.query !== undefined && r.query.trim() !== '') !== (r.similarTo !== undefined),
+    {
+      message: 'give either a query or similarTo, not both',
+      path: ['query'],
+    },
+  );
 export type SearchReq = z.input<typeof searchRequestSchema>;
 export type SearchParsedReq = z.output<typeof searchRequestSchema>;
 

@@ -26,6 +26,9 @@ import * as matterReview from './routes/matter/review';
 import * as matterSearch from './routes/matter/search';
 import * as matterTrash from './routes/matter/trash';
 import * as matterUpload from './routes/matter/upload';
+import * as matterPrioritised from './routes/matter/prioritised';
+import * as matterValidation from './routes/matter/validation';
+import * as matterValidationSample from './routes/matter/validation-sample';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteError } from './routes/route-error';
@@ -154,6 +157,20 @@ export function createAppRouter(queryClient: QueryClient) {
               Component: matterTrash.TrashRoute,
             },
             { path: 'productions', Component: matterProductions.ProductionsRoute },
+            {
+              path: 'prioritised',
+              loader: matterPrioritised.clientLoader(queryClient),
+              Component: matterPrioritised.PrioritisedRoute,
+            },
+            {
+              path: 'validation',
+              loader: matterValidation.clientLoader(queryClient),
+              Component: matterValidation.ValidationRoute,
+            },
+            {
+              path: 'validation/:sampleId',
+              Component: matterValidationSample.ValidationSampleRoute,
+            },
           ],
         },
         { path: 'account', Component: account.AccountRoute },

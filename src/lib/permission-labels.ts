@@ -26,4 +26,7 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'productions.manage': 'Build and download productions',
   'passwords.manage': 'Keep the password list for encrypted files',
   'relationships.manage': 'Set the near-duplicate threshold',
+  'ranking.train': 'Retrain the learned ranking',
+  'validation.view': 'See recall validation',
+  'validation.run': 'Draw validation samples',
 };

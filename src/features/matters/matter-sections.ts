@@ -89,6 +89,21 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     permission: 'documents.delete',
     summary: 'Deleted coded documents: restore them, or purge them for good.',
   },
+  {
+    id: 'prioritised',
+    label: 'Prioritised review',
+    path: 'prioritised',
+    permission: 'search.run',
+    summary: 'Uncoded documents most likely responsive, learned from the team’s codes.',
+  },
+  {
+    id: 'validation',
+    label: 'Validation',
+    path: 'validation',
+    permission: 'validation.view',
+    summary:
+      'Prevalence and elusion samples with exact confidence intervals and a recall estimate.',
+  },
 ];
 
 export function matterSectionHref(matterId: number, section: MatterSection): string {

@@ -148,6 +148,7 @@ export const MODE_LABELS: Record<SearchMode, string> = {
   concept: 'Concept',
   keyword: 'Keyword',
   hybrid: 'Hybrid',
+  prioritised: 'Prioritised',
 };
 
 /** One line each, shown under the mode switch. */
@@ -156,6 +157,8 @@ export const MODE_EXPLANATIONS: Record<SearchMode, string> = {
     'Finds documents about the same thing, even when they use other words (latent semantic indexing).',
   keyword: 'Finds documents containing your words (after stemming), ranked by BM25.',
   hybrid: 'Blends both rankings: documents with your words and documents about the same thing.',
+  prioritised:
+    "Uncoded documents most likely to be coded Responsive, learned from the team's codes; your words, if any, narrow the list.",
 };
 
 export function searchHref(matterId: number, state: SearchState): string {

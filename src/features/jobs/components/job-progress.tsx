@@ -9,6 +9,7 @@ export const JOB_KIND_LABELS: Record<Job['kind'], string> = {
   'build-index': 'Concept index build',
   'build-production': 'Production build',
   'concept-grouping': 'Concept grouping',
+  'train-ranking': 'Learned ranking training',
 };
 
 const STATUS_LABELS: Record<Job['status'], string> = {
