@@ -1,6 +1,7 @@
 import { accountSetupRoutes } from './account-setup/router';
 import { adminRoutes } from './admin/router';
 import { auditRoutes } from './audit/router';
+import { batchRoutes } from './batches/router';
 import { codeRoutes } from './codes/router';
 import { conceptRoutes } from './concepts/router';
 import { authRoutes } from './auth/router';
@@ -39,4 +40,5 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...batchRoutes,
 ];

@@ -39,6 +39,15 @@ export const AUDIT_ACTIONS = [
   'saved_search.deleted',
   'export.results',
   'export.privilege_log',
+  'code_group.created',
+  'code_group.updated',
+  'batch.created',
+  'batch.assigned',
+  'batch.checked_out',
+  'batch.checked_in',
+  'qc.sample_drawn',
+  'qc.decided',
+  'coding.unlocked',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -80,4 +89,13 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'saved_search.deleted': 'Deleted a saved search',
   'export.results': 'Exported search results',
   'export.privilege_log': 'Exported the privilege log',
+  'code_group.created': 'Added a code group',
+  'code_group.updated': 'Changed a code group',
+  'batch.created': 'Cut a batch',
+  'batch.assigned': 'Assigned a batch',
+  'batch.checked_out': 'Checked out a batch',
+  'batch.checked_in': 'Checked in a batch',
+  'qc.sample_drawn': 'Drew a quality-control sample',
+  'qc.decided': 'Confirmed or overturned a call',
+  'coding.unlocked': 'Unlocked coding after quality control',
 };

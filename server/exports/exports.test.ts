@@ -149,9 +149,11 @@ describe('privilege-log.csv', () => {
   test('documents coded Privileged with their basis and description, quoted per RFC 4180', async () => {
     const codes = (await lead.get(`${base}/codes`)).body.codes as { id: number; name: string }[];
     const privileged = codes.find((c) => c.name === 'Privileged')!.id;
-    await lead
-      .post(`${base}/codes/bulk`)
-      .send({ documentIds: [m.ids.c5, m.ids.c3], add: [privileged] });
+    await lead.post(`${base}/codes/bulk`).send({
+      documentIds: [m.ids.c5, m.ids.c3],
+      add: [privileged],
+      privilege: { type: 'Attorney-client privilege', basis: 'Legal advice' },
+    });
     const tricky = 'Advice on "response time", line one\nline two';
     await lead
       .put(`${base}/documents/${m.ids.c3}/privilege`)

@@ -19,4 +19,7 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'index.rebuild': 'Rebuild the concept index',
   'concepts.view': 'Explore the concept space',
   'concepts.label': 'Label concepts',
+  'batches.manage': 'Cut and assign review batches',
+  'qc.manage': 'Draw quality-control samples and unlock checked coding',
+  'privilege_log.edit': 'Read and edit the privilege log',
 };
