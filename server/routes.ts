@@ -14,6 +14,7 @@ import { invitationRoutes } from './invitations/router';
 import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
+import { qcRoutes } from './qc/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
@@ -41,4 +42,5 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...indexRoutes,
   ...conceptRoutes,
   ...batchRoutes,
+  ...qcRoutes,
 ];
