@@ -134,6 +134,12 @@ export function batchRows(
           ),
         )
         .as('coded'),
+      eb
+        .selectFrom('qc_samples as s')
+        .select('s.id')
+        .whereRef('s.batch_id', '=', 'b.id')
+        .limit(1)
+        .as('qc_sample_id'),
     ])
     .where('b.matter_id', '=', matterId);
   if (where.ids) q = q.where('b.id', 'in', where.ids.length ? where.ids : [-1]);

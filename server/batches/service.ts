@@ -67,6 +67,7 @@ function toBatch(row: BatchRow, complete: number): Batch {
     checkedOutAt: row.checked_out_at,
     checkedInAt: row.checked_in_at,
     progress: { documents: Number(row.documents ?? 0), coded: Number(row.coded ?? 0), complete },
+    qcSampleId: row.qc_sample_id ?? null,
   };
 }
 
@@ -578,8 +579,19 @@ export async function teamProgress(db: Db, matterId: number): Promise<TeamProgre
     p.documentsCoded = coded.get(id)?.size ?? 0;
     p.documentsPerHour = rate(p.documentsCoded, p.hours);
   }
+  const members = await db
+    .selectFrom('matter_members as m')
+    .innerJoin('users as u', 'u.id', 'm.user_id')
+    .select(['u.id', 'u.name', 'u.email', 'm.role'])
+    .where('m.matter_id', '=', matterId)
+    .where('u.disabled_at', 'is', null)
+    .orderBy('u.name')
+    .execute();
   return {
     batches,
     reviewers: [...people.values()].sort((a, b) => a.reviewer.name.localeCompare(b.reviewer.name)),
+    assignable: members
+      .filter((mm) => roleCan(mm.role as MatterRole, 'documents.code'))
+      .map(({ id, name, email }) => ({ id, name, email })),
   };
 }

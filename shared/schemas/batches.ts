@@ -101,6 +101,8 @@ export interface Batch {
   checkedOutAt: string | null;
   checkedInAt: string | null;
   progress: BatchProgress;
+  /** A QC batch's sample. */
+  qcSampleId: number | null;
 }
 
 export interface BatchesResponse {
@@ -155,4 +157,6 @@ export interface BatchProgressRow {
 export interface TeamProgressResponse {
   batches: BatchProgressRow[];
   reviewers: ReviewerProgress[];
+  /** Members a batch may be assigned to (their role codes documents). */
+  assignable: PersonRef[];
 }

@@ -22,6 +22,9 @@ import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
 import * as matterReview from './routes/matter/review';
+import * as matterBatches from './routes/matter/batches';
+import * as matterQc from './routes/matter/qc';
+import * as matterPrivilegeLog from './routes/matter/privilege-log';
 import * as matterSearch from './routes/matter/search';
 import * as matterUpload from './routes/matter/upload';
 import * as matters from './routes/matters';
@@ -145,6 +148,9 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterActivity.clientLoader(queryClient),
               Component: matterActivity.ActivityRoute,
             },
+            { path: 'batches', Component: matterBatches.BatchesRoute },
+            { path: 'qc', Component: matterQc.QcRoute },
+            { path: 'privilege-log', Component: matterPrivilegeLog.PrivilegeLogRoute },
           ],
         },
         { path: 'account', Component: account.AccountRoute },

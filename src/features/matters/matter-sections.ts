@@ -75,6 +75,27 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     permission: 'audit.read',
     summary: 'Every sign-in, invitation and access change, newest first.',
   },
+  {
+    id: 'batches',
+    label: 'Batches',
+    path: 'batches',
+    permission: 'documents.code',
+    summary: 'Your review batches; for leads and attorneys, cutting, assigning and team progress.',
+  },
+  {
+    id: 'qc',
+    label: 'Quality control',
+    path: 'qc',
+    permission: 'qc.manage',
+    summary: 'Second-level review of first-level calls: samples, verdicts and overturn rates.',
+  },
+  {
+    id: 'privilege-log',
+    label: 'Privilege log',
+    path: 'privilege-log',
+    permission: 'privilege_log.edit',
+    summary: 'Withheld and redacted documents with their families; edit descriptions, export CSV.',
+  },
 ];
 
 export function matterSectionHref(matterId: number, section: MatterSection): string {
