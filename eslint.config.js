@@ -5,10 +5,20 @@ import globals from 'globals';
 
 // Dependencies run one way: src/ and server/ may import shared/ and (server only)
 // server/engine/ through its one door, server/engine/index.ts; shared/ and the engine
-// import neither; the client never imports the server.
-const noImport = (patterns, message) => ({
-  'no-restricted-imports': ['error', { patterns: [{ group: patterns, message }] }],
+// import neither; the client never imports the server. The aliases `@/` (src/) and
+// `@shared/` (shared/) exist only in the client's build, so nothing else may use them.
+const aliases = ['@/*', '@shared/*'];
+const aliasMessage = 'The @/ and @shared/ aliases exist only in the client (src/).';
+const noImport = (patterns, message, extra = []) => ({
+  'no-restricted-imports': [
+    'error',
+    {
+      paths: [{ name: 'react-router', message: 'Import from react-router-dom.' }],
+      patterns: [{ group: patterns, message }, ...extra],
+    },
+  ],
 });
+const noAlias = [{ group: aliases, message: aliasMessage }];
 
 export default tseslint.config(
   {
@@ -40,6 +50,7 @@ export default tseslint.config(
     rules: noImport(
       ['**/engine/*', '!**/engine/index'],
       'Import the concept engine through its one door, server/engine/index.ts.',
+      noAlias,
     ),
   },
   {
@@ -60,6 +71,7 @@ export default tseslint.config(
     rules: noImport(
       ['**/server/**', '**/src/**', '**/engine/**'],
       'shared/ is imported by both sides and imports neither.',
+      noAlias,
     ),
   },
   // The engine is a library: it reaches nothing outside its own folder.
@@ -73,6 +85,7 @@ export default tseslint.config(
     rules: noImport(
       [outside, '**/src/**', '**/shared/**', 'express'],
       'The concept engine is a library independent of the web server.',
+      noAlias,
     ),
   })),
   {
@@ -80,6 +93,7 @@ export default tseslint.config(
     rules: noImport(
       ['**/server/**', '**/shared/**'],
       'Migrations are frozen in time: they import nothing of the app.',
+      noAlias,
     ),
   },
 );

@@ -1,6 +1,13 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
+
+// `@/` is src/ and `@shared/` is shared/ (the same paths as tsconfig.app.json).
+export const clientAliases = {
+  '@/': fileURLToPath(new URL('./src/', import.meta.url)),
+  '@shared/': fileURLToPath(new URL('./shared/', import.meta.url)),
+};
 
 const apiPort = process.env.QUARRY_API_PORT ?? '3001';
 
@@ -8,6 +15,7 @@ const apiPort = process.env.QUARRY_API_PORT ?? '3001';
 // Vite serves it and proxies /api to the watched API server.
 export default defineConfig({
   plugins: [react(), tailwindcss()],
+  resolve: { alias: clientAliases },
   build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1500 },
   server: {
     port: 5173,

@@ -1,8 +1,10 @@
 import { defineConfig } from 'vitest/config';
+import { clientAliases } from './vite.config';
 
 // Unit and API tests run in Node against real, freshly migrated SQLite files.
 // Browser tests (tests/browser) drive Debian's Chromium through playwright-core.
 export default defineConfig({
+  resolve: { alias: clientAliases },
   test: {
     environment: 'node',
     include: ['**/*.test.ts'],

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { RouterProvider } from 'react-router';
+import { RouterProvider } from 'react-router-dom';
 import { AppProvider, createQueryClient } from './provider';
 import { createAppRouter } from './router';
 

@@ -1,5 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { createBrowserRouter, redirect } from 'react-router';
+import { createBrowserRouter, redirect } from 'react-router-dom';
 import { setUnauthenticatedHandler } from '../lib/api-client';
 import * as account from './routes/account';
 import * as accountSetup from './routes/account-setup';

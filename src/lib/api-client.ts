@@ -1,4 +1,4 @@
-import { apiErrorSchema, type ErrorCode } from '../../shared/errors';
+import { apiErrorSchema, type ErrorCode } from '@shared/errors';
 
 /** An API failure with the server's code, message and (for validation) the field. */
 export class ApiError extends Error {

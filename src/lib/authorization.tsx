@@ -1,5 +1,5 @@
 import { type ReactNode, createContext, useContext } from 'react';
-import { type MatterPermission, type MatterRole, roleCan } from '../../shared/roles';
+import { type MatterPermission, type MatterRole, roleCan } from '@shared/roles';
 
 /**
  * The current person's role on the matter being viewed, as the API returned it

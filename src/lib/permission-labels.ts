@@ -1,4 +1,4 @@
-import type { MatterPermission } from '../../shared/roles';
+import type { MatterPermission } from '@shared/roles';
 
 /** Plain words for each permission, shown on the matter home ("what your role may do"). */
 export const PERMISSION_LABELS: Record<MatterPermission, string> = {

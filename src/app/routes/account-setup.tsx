@@ -1,7 +1,7 @@
 import { type FormEvent, useState } from 'react';
-import { Link, useNavigate, useParams } from 'react-router';
-import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '../../../shared/limits';
-import { PublicLayout } from '../../components/layout/public-layout';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '@shared/limits';
+import { PublicLayout } from '@/components/layout/public-layout';
 import {
   Button,
   ErrorPanel,
@@ -9,14 +9,14 @@ import {
   Notice,
   TextField,
   describeError,
-} from '../../components/ui';
-import { useCompleteAccountSetup } from '../../features/account-setup/api/complete-account-setup';
+} from '@/components/ui';
+import { useCompleteAccountSetup } from '@/features/account-setup/api/complete-account-setup';
 import {
   type AccountSetupPreviewResponse,
   useAccountSetup,
-} from '../../features/account-setup/api/get-account-setup';
-import { fieldErrorOf, isApiError } from '../../lib/api-client';
-import { formatDateTime } from '../../lib/format';
+} from '@/features/account-setup/api/get-account-setup';
+import { fieldErrorOf, isApiError } from '@/lib/api-client';
+import { formatDateTime } from '@/lib/format';
 
 /**
  * /account-setup/:token: the holder of a new account, created by a firm admin, chooses

@@ -1,5 +1,5 @@
 import { type FormEvent, useState } from 'react';
-import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '../../../shared/limits';
+import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '@shared/limits';
 import {
   Button,
   Notice,
@@ -7,10 +7,10 @@ import {
   QueryBoundary,
   TextField,
   describeError,
-} from '../../components/ui';
-import { useChangePassword } from '../../features/auth/api/change-password';
-import { useMe } from '../../features/auth/api/get-me';
-import { fieldErrorOf, isApiError } from '../../lib/api-client';
+} from '@/components/ui';
+import { useChangePassword } from '@/features/auth/api/change-password';
+import { useMe } from '@/features/auth/api/get-me';
+import { fieldErrorOf, isApiError } from '@/lib/api-client';
 
 export function AccountRoute() {
   const me = useMe();

@@ -7,8 +7,8 @@ import {
   MATTER_NAME_MAX_LENGTH,
   NAME_MAX_LENGTH,
   PASSWORD_MIN_LENGTH,
-} from '../../../shared/limits';
-import type { CreateUserResponse } from '../../../shared/schemas/admin';
+} from '@shared/limits';
+import type { CreateUserResponse } from '@shared/schemas/admin';
 import {
   Badge,
   Button,
@@ -25,19 +25,19 @@ import {
   Th,
   Tr,
   describeError,
-} from '../../components/ui';
-import { useAppointLead } from '../../features/admin/api/appoint-lead';
-import { useCreateUser } from '../../features/admin/api/create-user';
-import { useCreateMatter } from '../../features/admin/api/create-matter';
-import { usersQueryOptions, useUsers } from '../../features/admin/api/get-users';
+} from '@/components/ui';
+import { useAppointLead } from '@/features/admin/api/appoint-lead';
+import { useCreateUser } from '@/features/admin/api/create-user';
+import { useCreateMatter } from '@/features/admin/api/create-matter';
+import { usersQueryOptions, useUsers } from '@/features/admin/api/get-users';
 import {
   type AdminMatter,
   adminMattersQueryOptions,
   useAdminMatters,
-} from '../../features/admin/api/get-admin-matters';
-import { useMe } from '../../features/auth/api/get-me';
-import { fieldErrorOf, isApiError } from '../../lib/api-client';
-import { formatDate } from '../../lib/format';
+} from '@/features/admin/api/get-admin-matters';
+import { useMe } from '@/features/auth/api/get-me';
+import { fieldErrorOf, isApiError } from '@/lib/api-client';
+import { formatDate } from '@/lib/format';
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   void queryClient.prefetchQuery(usersQueryOptions());

@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { type LoaderFunctionArgs, redirect } from 'react-router';
-import { meQueryOptions } from '../../features/auth/api/get-me';
-import { isApiError } from '../../lib/api-client';
+import { type LoaderFunctionArgs, redirect } from 'react-router-dom';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { isApiError } from '@/lib/api-client';
 
 /** Every signed-in page waits for the session; without one it goes to sign-in and back. */
 export const clientLoader =
@@ -19,4 +19,4 @@ export const clientLoader =
     }
   };
 
-export { AppLayout as AppRoot } from '../../components/layout/app-layout';
+export { AppLayout as AppRoot } from '@/components/layout/app-layout';

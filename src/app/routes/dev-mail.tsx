@@ -1,9 +1,9 @@
 import { Fragment, useState } from 'react';
-import { PublicLayout } from '../../components/layout/public-layout';
-import { Button, EmptyState, Notice, PageHeader, QueryBoundary } from '../../components/ui';
-import { type DevMailMessage, useDevMail } from '../../features/dev-mail/api/get-dev-mail';
-import { isApiError } from '../../lib/api-client';
-import { formatDateTime } from '../../lib/format';
+import { PublicLayout } from '@/components/layout/public-layout';
+import { Button, EmptyState, Notice, PageHeader, QueryBoundary } from '@/components/ui';
+import { type DevMailMessage, useDevMail } from '@/features/dev-mail/api/get-dev-mail';
+import { isApiError } from '@/lib/api-client';
+import { formatDateTime } from '@/lib/format';
 
 /** /dev/mail — the fake SMTP server's mailbox, served only in demo/dev mode. */
 export function DevMailRoute() {

@@ -1,8 +1,8 @@
 import { type FormEvent, useState } from 'react';
-import { Link, useNavigate, useParams } from 'react-router';
-import { NAME_MAX_LENGTH, PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '../../../shared/limits';
-import { ROLE_LABELS } from '../../../shared/roles';
-import { PublicLayout } from '../../components/layout/public-layout';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { NAME_MAX_LENGTH, PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '@shared/limits';
+import { ROLE_LABELS } from '@shared/roles';
+import { PublicLayout } from '@/components/layout/public-layout';
 import {
   Button,
   ErrorPanel,
@@ -10,15 +10,15 @@ import {
   Notice,
   TextField,
   describeError,
-} from '../../components/ui';
-import { useAcceptInvitation } from '../../features/invitations/api/accept-invitation';
-import { useMe } from '../../features/auth/api/get-me';
+} from '@/components/ui';
+import { useAcceptInvitation } from '@/features/invitations/api/accept-invitation';
+import { useMe } from '@/features/auth/api/get-me';
 import {
   type InvitationPreviewResponse,
   useInvitation,
-} from '../../features/invitations/api/get-invitation';
-import { isApiError } from '../../lib/api-client';
-import { formatDateTime } from '../../lib/format';
+} from '@/features/invitations/api/get-invitation';
+import { isApiError } from '@/lib/api-client';
+import { formatDateTime } from '@/lib/format';
 
 /** /invitations/:token — create an account (name + password) or link an existing one. */
 export function InvitationRoute() {

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link } from 'react-router';
-import { ROLE_LABELS } from '../../../shared/roles';
+import { Link } from 'react-router-dom';
+import { ROLE_LABELS } from '@shared/roles';
 import {
   Badge,
   EmptyState,
@@ -12,10 +12,10 @@ import {
   Td,
   Th,
   Tr,
-} from '../../components/ui';
-import { useMe } from '../../features/auth/api/get-me';
-import { myMattersQueryOptions, useMyMatters } from '../../features/matters/api/get-my-matters';
-import { formatDate } from '../../lib/format';
+} from '@/components/ui';
+import { useMe } from '@/features/auth/api/get-me';
+import { myMattersQueryOptions, useMyMatters } from '@/features/matters/api/get-my-matters';
+import { formatDate } from '@/lib/format';
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   void queryClient.prefetchQuery(myMattersQueryOptions());

@@ -1,5 +1,5 @@
-import { Link } from 'react-router';
-import { EmptyState } from '../../components/ui';
+import { Link } from 'react-router-dom';
+import { EmptyState } from '@/components/ui';
 
 export function NotFoundPanel({ what = 'page' }: { what?: 'page' | 'matter' }) {
   return (

@@ -1,5 +1,5 @@
-import { isRouteErrorResponse, useRouteError } from 'react-router';
-import { ErrorPanel } from '../../components/ui';
+import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
+import { ErrorPanel } from '@/components/ui';
 
 /** Shown when a loader or a page throws: the message and a reload, never a blank screen. */
 export function RouteError() {

@@ -1,12 +1,12 @@
 import { type QueryClient } from '@tanstack/react-query';
 import { type FormEvent, useState } from 'react';
-import { type LoaderFunctionArgs, redirect, useNavigate, useSearchParams } from 'react-router';
-import { PublicLayout } from '../../components/layout/public-layout';
-import { Button, Notice, TextField } from '../../components/ui';
-import { meQueryOptions } from '../../features/auth/api/get-me';
-import { useSignIn } from '../../features/auth/api/sign-in';
-import { fieldErrorOf, isApiError } from '../../lib/api-client';
-import { safeNext } from '../../lib/safe-next';
+import { type LoaderFunctionArgs, redirect, useNavigate, useSearchParams } from 'react-router-dom';
+import { PublicLayout } from '@/components/layout/public-layout';
+import { Button, Notice, TextField } from '@/components/ui';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { useSignIn } from '@/features/auth/api/sign-in';
+import { fieldErrorOf, isApiError } from '@/lib/api-client';
+import { safeNext } from '@/lib/safe-next';
 
 /** Someone already signed in skips the form. */
 export const clientLoader =

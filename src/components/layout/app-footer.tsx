@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { devMailQueryOptions } from '../../features/dev-mail/api/get-dev-mail';
+import { devMailQueryOptions } from '@/features/dev-mail/api/get-dev-mail';
 
 export function AppFooter() {
   // The dev mailbox exists only in demo/dev mode; elsewhere the endpoint is a 404.

@@ -1,7 +1,7 @@
-import { NavLink, Outlet, useNavigate } from 'react-router';
-import { useMe } from '../../features/auth/api/get-me';
-import { useSignOut } from '../../features/auth/api/sign-out';
-import { cn } from '../../lib/cn';
+import { NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { useMe } from '@/features/auth/api/get-me';
+import { useSignOut } from '@/features/auth/api/sign-out';
+import { cn } from '@/lib/cn';
 import { Button } from '../ui';
 import { AppFooter } from './app-footer';
 import { Wordmark } from './wordmark';

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { Link, useLocation } from 'react-router';
+import { Link, useLocation } from 'react-router-dom';
 import { AppFooter } from './app-footer';
 import { Wordmark } from './wordmark';
 

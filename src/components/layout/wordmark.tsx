@@ -1,4 +1,4 @@
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 
 /** Quarry's wordmark: a cut-stone glyph (three stacked blocks) and the name. */
 export function Wordmark({ to = '/matters' }: { to?: string }) {

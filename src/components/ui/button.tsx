@@ -1,5 +1,5 @@
 import { type ButtonHTMLAttributes, forwardRef } from 'react';
-import { cn } from '../../lib/cn';
+import { cn } from '@/lib/cn';
 import { Spinner } from './spinner';
 
 type Variant = 'primary' | 'secondary' | 'quiet' | 'danger';

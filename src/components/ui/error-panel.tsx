@@ -1,4 +1,4 @@
-import { isApiError } from '../../lib/api-client';
+import { isApiError } from '@/lib/api-client';
 import { Button } from './button';
 
 /** Describes a failed request in words a person can act on. */

@@ -1,5 +1,5 @@
 import { type SelectHTMLAttributes, forwardRef, useId } from 'react';
-import { cn } from '../../lib/cn';
+import { cn } from '@/lib/cn';
 import { inputBase, inputSize } from './text-field';
 
 export interface SelectOption {

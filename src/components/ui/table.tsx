@@ -1,5 +1,5 @@
 import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
-import { cn } from '../../lib/cn';
+import { cn } from '@/lib/cn';
 
 /** A dense, ruled data table. `caption` names it for screen readers. */
 export function Table({

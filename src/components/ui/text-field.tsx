@@ -1,5 +1,5 @@
 import { type InputHTMLAttributes, forwardRef, useId } from 'react';
-import { cn } from '../../lib/cn';
+import { cn } from '@/lib/cn';
 
 /** Shared look of inputs and selects; sizes are separate so they never conflict. */
 export const inputBase =

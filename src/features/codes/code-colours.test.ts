@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { CODE_COLOURS, DEFAULT_CODES } from '../../../shared/schemas/codes';
+import { CODE_COLOURS, DEFAULT_CODES } from '@shared/schemas/codes';
 
 // Every chip colour pair against WCAG 2.2 SC 1.4.3 "Contrast (Minimum)": 4.5:1 for text,
 // with WCAG's relative luminance and contrast ratio (as src/theme-contrast.test.ts does).

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { MapResponse } from '../../../shared/schemas/concepts';
+import type { MapResponse } from '@shared/schemas/concepts';
 import { hitTest, prepareMap, transformFor, zoomAt } from './map-model';
 
 // The document map's grid hit-test is checked against a brute-force scan over every

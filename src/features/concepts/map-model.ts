@@ -1,4 +1,4 @@
-import type { MapResponse } from '../../../shared/schemas/concepts';
+import type { MapResponse } from '@shared/schemas/concepts';
 
 // The document map's data, prepared once per answer: typed arrays for one draw pass,
 // points ordered by category (one path and one fill per category), and a uniform grid

@@ -1,8 +1,4 @@
-import type {
-  DocumentListItem,
-  DocumentStatus,
-  IndexState,
-} from '../../../shared/schemas/documents';
+import type { DocumentListItem, DocumentStatus, IndexState } from '@shared/schemas/documents';
 
 const units = ['bytes', 'KB', 'MB', 'GB'] as const;
 

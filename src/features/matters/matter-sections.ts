@@ -1,4 +1,4 @@
-import type { MatterPermission } from '../../../shared/roles';
+import type { MatterPermission } from '@shared/roles';
 
 /**
  * The sections of a matter, in the order the matter's navigation lists them.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_CODES } from '../../../shared/schemas/codes';
+import { DEFAULT_CODES } from '@shared/schemas/codes';
 import type { Code } from '../codes/api/get-codes';
 import { codeKeyMap, keyOfCode } from './keyboard';
 

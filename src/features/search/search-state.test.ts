@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { searchRequestSchema } from '../../../shared/schemas/search';
+import { searchRequestSchema } from '@shared/schemas/search';
 import { parseSearchState, searchRequestFor, searchStateToParams } from './search-state';
 
 // The address bar holds the search; the viewer rebuilds the same request from it.

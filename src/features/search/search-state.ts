@@ -7,7 +7,7 @@ import {
   type SearchReq,
   type SearchSort,
   type SortField,
-} from '../../../shared/schemas/search';
+} from '@shared/schemas/search';
 
 /**
  * What a search screen shows, kept in the address bar so a search can be bookmarked,

@@ -1,8 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { type FormEvent, useState } from 'react';
-import type { LoaderFunctionArgs } from 'react-router';
-import { MATTER_ROLES, type MatterRole, ROLE_LABELS } from '../../../../shared/roles';
-import { EMAIL_MAX_LENGTH } from '../../../../shared/limits';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { MATTER_ROLES, type MatterRole, ROLE_LABELS } from '@shared/roles';
+import { EMAIL_MAX_LENGTH } from '@shared/limits';
 import {
   Badge,
   Button,
@@ -19,21 +19,17 @@ import {
   Th,
   Tr,
   describeError,
-} from '../../../components/ui';
-import { useMe } from '../../../features/auth/api/get-me';
-import { useChangeMemberRole } from '../../../features/members/api/change-member-role';
-import {
-  type Member,
-  membersQueryOptions,
-  useMembers,
-} from '../../../features/members/api/get-members';
-import { useGrantMember } from '../../../features/members/api/grant-member';
-import { useInviteMember } from '../../../features/members/api/invite-member';
-import { useRevokeInvitation } from '../../../features/members/api/revoke-invitation';
-import { useRevokeMember } from '../../../features/members/api/revoke-member';
-import { fieldErrorOf } from '../../../lib/api-client';
-import { Can, useMatterPermission } from '../../../lib/authorization';
-import { formatDate, formatDateTime } from '../../../lib/format';
+} from '@/components/ui';
+import { useMe } from '@/features/auth/api/get-me';
+import { useChangeMemberRole } from '@/features/members/api/change-member-role';
+import { type Member, membersQueryOptions, useMembers } from '@/features/members/api/get-members';
+import { useGrantMember } from '@/features/members/api/grant-member';
+import { useInviteMember } from '@/features/members/api/invite-member';
+import { useRevokeInvitation } from '@/features/members/api/revoke-invitation';
+import { useRevokeMember } from '@/features/members/api/revoke-member';
+import { fieldErrorOf } from '@/lib/api-client';
+import { Can, useMatterPermission } from '@/lib/authorization';
+import { formatDate, formatDateTime } from '@/lib/format';
 import { parseMatterId, useMatterId } from './layout';
 
 const roleOptions = MATTER_ROLES.map((role) => ({ value: role, label: ROLE_LABELS[role] }));

@@ -1,8 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import type { LoaderFunctionArgs } from 'react-router';
-import { AUDIT_ACTIONS, AUDIT_ACTION_LABELS } from '../../../../shared/audit';
-import { useSearchParams } from 'react-router';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { AUDIT_ACTIONS, AUDIT_ACTION_LABELS } from '@shared/audit';
+import { useSearchParams } from 'react-router-dom';
 import {
   Button,
   EmptyState,
@@ -17,16 +17,16 @@ import {
   Td,
   Th,
   Tr,
-} from '../../../components/ui';
-import { useMembers } from '../../../features/members/api/get-members';
+} from '@/components/ui';
+import { useMembers } from '@/features/members/api/get-members';
 import {
   type AuditEvent,
   type AuditFilters,
   auditEventsQueryOptions,
   useAuditEvents,
-} from '../../../features/audit/api/get-audit-events';
-import { useMatterPermission } from '../../../lib/authorization';
-import { formatDateTime, humanizeAction } from '../../../lib/format';
+} from '@/features/audit/api/get-audit-events';
+import { useMatterPermission } from '@/lib/authorization';
+import { formatDateTime, humanizeAction } from '@/lib/format';
 import { parseMatterId, useMatterId } from './layout';
 
 const PAGE_SIZE = 50;

@@ -1,4 +1,4 @@
-import { BatchesPage } from '../../../features/batches/components/batches-page';
+import { BatchesPage } from '@/features/batches/components/batches-page';
 import { useMatterId } from './layout';
 
 /** /matters/:matterId/batches */

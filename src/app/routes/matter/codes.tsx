@@ -1,9 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
-import type { LoaderFunctionArgs } from 'react-router';
-import { Notice, PageHeader, QueryBoundary } from '../../../components/ui';
-import { codesQueryOptions, useCodes } from '../../../features/codes/api/get-codes';
-import { CodeSetEditor } from '../../../features/codes/components/code-set-editor';
-import { useMatterPermission } from '../../../lib/authorization';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { Notice, PageHeader, QueryBoundary } from '@/components/ui';
+import { codesQueryOptions, useCodes } from '@/features/codes/api/get-codes';
+import { CodeSetEditor } from '@/features/codes/components/code-set-editor';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

@@ -1,18 +1,15 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { type LoaderFunctionArgs, useSearchParams } from 'react-router';
+import { type LoaderFunctionArgs, useSearchParams } from 'react-router-dom';
 import {
   CONCEPT_DIMENSIONS_DEFAULT,
   CONCEPT_DIMENSIONS_MAX,
   type DimensionsQuery,
-} from '../../../../shared/schemas/concepts';
-import { EmptyState, Select, SkeletonRows, Spinner } from '../../../components/ui';
-import {
-  dimensionsQueryOptions,
-  useDimensions,
-} from '../../../features/concepts/api/get-dimensions';
-import { DimensionCard } from '../../../features/concepts/components/dimension-card';
-import { useMatterPermission } from '../../../lib/authorization';
-import { ConceptQuery } from '../../../features/concepts/components/concept-query';
+} from '@shared/schemas/concepts';
+import { EmptyState, Select, SkeletonRows, Spinner } from '@/components/ui';
+import { dimensionsQueryOptions, useDimensions } from '@/features/concepts/api/get-dimensions';
+import { DimensionCard } from '@/features/concepts/components/dimension-card';
+import { useMatterPermission } from '@/lib/authorization';
+import { ConceptQuery } from '@/features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 

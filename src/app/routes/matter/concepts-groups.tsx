@@ -1,12 +1,12 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { type FormEvent, useId, useState } from 'react';
-import { Link, type LoaderFunctionArgs, useSearchParams } from 'react-router';
+import { Link, type LoaderFunctionArgs, useSearchParams } from 'react-router-dom';
 import {
   GROUPS_MAX,
   GROUPS_MIN,
   type GroupingResponse,
   type GroupingSummary,
-} from '../../../../shared/schemas/concepts';
+} from '@shared/schemas/concepts';
 import {
   Badge,
   Button,
@@ -22,15 +22,15 @@ import {
   Tr,
   describeError,
   inputClass,
-} from '../../../components/ui';
-import { useCreateGrouping } from '../../../features/concepts/api/create-grouping';
-import { useGrouping } from '../../../features/concepts/api/get-grouping';
-import { groupingsQueryOptions, useGroupings } from '../../../features/concepts/api/get-groupings';
-import { formatFigure } from '../../../features/concepts/format';
-import { fieldErrorOf } from '../../../lib/api-client';
-import { useMatterPermission } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
-import { ConceptQuery } from '../../../features/concepts/components/concept-query';
+} from '@/components/ui';
+import { useCreateGrouping } from '@/features/concepts/api/create-grouping';
+import { useGrouping } from '@/features/concepts/api/get-grouping';
+import { groupingsQueryOptions, useGroupings } from '@/features/concepts/api/get-groupings';
+import { formatFigure } from '@/features/concepts/format';
+import { fieldErrorOf } from '@/lib/api-client';
+import { useMatterPermission } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { ConceptQuery } from '@/features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 

@@ -1,16 +1,16 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
-import { Link, type LoaderFunctionArgs } from 'react-router';
-import type { HealthResponse } from '../../../../shared/schemas/concepts';
-import { Button, Notice, SkeletonRows, describeError } from '../../../components/ui';
+import { Link, type LoaderFunctionArgs } from 'react-router-dom';
+import type { HealthResponse } from '@shared/schemas/concepts';
+import { Button, Notice, SkeletonRows, describeError } from '@/components/ui';
 import {
   conceptHealthQueryOptions,
   useConceptHealth,
-} from '../../../features/concepts/api/get-concept-health';
-import { formatCount, formatFigure, formatShare } from '../../../features/concepts/format';
-import { useRebuildIndex } from '../../../features/indexing/api/rebuild-index';
-import { Can, useMatterPermission } from '../../../lib/authorization';
-import { ConceptQuery } from '../../../features/concepts/components/concept-query';
+} from '@/features/concepts/api/get-concept-health';
+import { formatCount, formatFigure, formatShare } from '@/features/concepts/format';
+import { useRebuildIndex } from '@/features/indexing/api/rebuild-index';
+import { Can, useMatterPermission } from '@/lib/authorization';
+import { ConceptQuery } from '@/features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 

@@ -1,21 +1,18 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useMemo } from 'react';
-import { type LoaderFunctionArgs, useNavigate, useSearchParams } from 'react-router';
+import { type LoaderFunctionArgs, useNavigate, useSearchParams } from 'react-router-dom';
 import {
   CONCEPT_DIMENSIONS_MAX,
   type DimensionsResponse,
   type MapQuery,
-} from '../../../../shared/schemas/concepts';
-import { EmptyState, Select, SkeletonRows, Spinner } from '../../../components/ui';
-import { useDimensions } from '../../../features/concepts/api/get-dimensions';
-import {
-  documentMapQueryOptions,
-  useDocumentMap,
-} from '../../../features/concepts/api/get-document-map';
-import { type AxisEnds, DocumentMap } from '../../../features/concepts/components/document-map';
-import type { ColourBy } from '../../../features/concepts/map-model';
-import { useMatterPermission } from '../../../lib/authorization';
-import { ConceptQuery } from '../../../features/concepts/components/concept-query';
+} from '@shared/schemas/concepts';
+import { EmptyState, Select, SkeletonRows, Spinner } from '@/components/ui';
+import { useDimensions } from '@/features/concepts/api/get-dimensions';
+import { documentMapQueryOptions, useDocumentMap } from '@/features/concepts/api/get-document-map';
+import { type AxisEnds, DocumentMap } from '@/features/concepts/components/document-map';
+import type { ColourBy } from '@/features/concepts/map-model';
+import { useMatterPermission } from '@/lib/authorization';
+import { ConceptQuery } from '@/features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 

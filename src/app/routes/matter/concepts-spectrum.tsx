@@ -1,18 +1,15 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { type ReactNode, useState } from 'react';
-import type { LoaderFunctionArgs } from 'react-router';
-import { EmptyState, QueryBoundary, SkeletonRows } from '../../../components/ui';
-import { spectrumQueryOptions, useSpectrum } from '../../../features/concepts/api/get-spectrum';
-import { RebuildForm } from '../../../features/concepts/components/rebuild-form';
-import { SpectrumChart } from '../../../features/concepts/components/spectrum-chart';
-import { VersionComparison } from '../../../features/concepts/components/version-comparison';
-import { formatFigure, formatShare, conditionNumberOf } from '../../../features/concepts/format';
-import { useBuildTimes } from '../../../features/concepts/hooks/use-build-times';
-import {
-  indexStateQueryOptions,
-  useIndexState,
-} from '../../../features/indexing/api/get-index-state';
-import { Can, useMatterPermission } from '../../../lib/authorization';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { EmptyState, QueryBoundary, SkeletonRows } from '@/components/ui';
+import { spectrumQueryOptions, useSpectrum } from '@/features/concepts/api/get-spectrum';
+import { RebuildForm } from '@/features/concepts/components/rebuild-form';
+import { SpectrumChart } from '@/features/concepts/components/spectrum-chart';
+import { VersionComparison } from '@/features/concepts/components/version-comparison';
+import { formatFigure, formatShare, conditionNumberOf } from '@/features/concepts/format';
+import { useBuildTimes } from '@/features/concepts/hooks/use-build-times';
+import { indexStateQueryOptions, useIndexState } from '@/features/indexing/api/get-index-state';
+import { Can, useMatterPermission } from '@/lib/authorization';
 import { ConceptViewForbidden } from './concepts';
 import { parseMatterId, useMatterId } from './layout';
 

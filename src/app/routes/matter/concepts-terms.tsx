@@ -1,27 +1,20 @@
 import { type FormEvent, useId, useState } from 'react';
-import { Link, useSearchParams } from 'react-router';
+import { Link, useSearchParams } from 'react-router-dom';
 import {
   NEIGHBOURS_DEFAULT,
   NEIGHBOURS_MAX,
   TERM_QUERY_MAX_LENGTH,
   type NeighboursQuery,
-} from '../../../../shared/schemas/concepts';
-import {
-  Button,
-  EmptyState,
-  Notice,
-  Select,
-  SkeletonRows,
-  inputClass,
-} from '../../../components/ui';
+} from '@shared/schemas/concepts';
+import { Button, EmptyState, Notice, Select, SkeletonRows, inputClass } from '@/components/ui';
 import {
   type NeighboursResponse,
   useTermNeighbours,
-} from '../../../features/concepts/api/get-term-neighbours';
-import { ValueBar } from '../../../features/concepts/components/loading-bar';
-import { formatCount } from '../../../features/concepts/format';
-import { useMatterPermission } from '../../../lib/authorization';
-import { ConceptQuery } from '../../../features/concepts/components/concept-query';
+} from '@/features/concepts/api/get-term-neighbours';
+import { ValueBar } from '@/features/concepts/components/loading-bar';
+import { formatCount } from '@/features/concepts/format';
+import { useMatterPermission } from '@/lib/authorization';
+import { ConceptQuery } from '@/features/concepts/components/concept-query';
 import { ConceptViewForbidden } from './concepts';
 import { useMatterId } from './layout';
 

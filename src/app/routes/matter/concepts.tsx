@@ -1,11 +1,11 @@
-import { NavLink, Navigate, Outlet } from 'react-router';
-import type { MatterPermission } from '../../../../shared/roles';
-import { ReviewCaution } from '../../../components/review-caution';
-import { Notice, PageHeader } from '../../../components/ui';
-import { useRefreshOnNewVersion } from '../../../features/concepts/hooks/use-refresh-on-new-version';
-import { useMatterRole } from '../../../lib/authorization';
-import { roleCan } from '../../../../shared/roles';
-import { cn } from '../../../lib/cn';
+import { NavLink, Navigate, Outlet } from 'react-router-dom';
+import type { MatterPermission } from '@shared/roles';
+import { ReviewCaution } from '@/components/review-caution';
+import { Notice, PageHeader } from '@/components/ui';
+import { useRefreshOnNewVersion } from '@/features/concepts/hooks/use-refresh-on-new-version';
+import { useMatterRole } from '@/lib/authorization';
+import { roleCan } from '@shared/roles';
+import { cn } from '@/lib/cn';
 import { useMatterId } from './layout';
 
 /** The views of the concept space, in the order the tabs list them. */

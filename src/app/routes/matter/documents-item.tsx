@@ -1,10 +1,10 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link, type LoaderFunctionArgs, useParams } from 'react-router';
-import { ErrorPanel, Notice, PageHeader, SkeletonRows } from '../../../components/ui';
-import { documentQueryOptions, useDocument } from '../../../features/documents/api/get-document';
-import { DocumentView } from '../../../features/documents/components/document-view';
-import { isApiError } from '../../../lib/api-client';
-import { useMatterPermission } from '../../../lib/authorization';
+import { Link, type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { ErrorPanel, Notice, PageHeader, SkeletonRows } from '@/components/ui';
+import { documentQueryOptions, useDocument } from '@/features/documents/api/get-document';
+import { DocumentView } from '@/features/documents/components/document-view';
+import { isApiError } from '@/lib/api-client';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

@@ -1,11 +1,11 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link, type LoaderFunctionArgs, useSearchParams } from 'react-router';
+import { Link, type LoaderFunctionArgs, useSearchParams } from 'react-router-dom';
 import {
   DOCUMENTS_PAGE_DEFAULT,
   DOCUMENTS_PAGE_MAX,
   DOCUMENT_STATUSES,
   type DocumentStatus,
-} from '../../../../shared/schemas/documents';
+} from '@shared/schemas/documents';
 import {
   Button,
   EmptyState,
@@ -15,21 +15,18 @@ import {
   Select,
   SkeletonRows,
   Spinner,
-} from '../../../components/ui';
-import {
-  useCustodians,
-  custodiansQueryOptions,
-} from '../../../features/documents/api/get-custodians';
+} from '@/components/ui';
+import { useCustodians, custodiansQueryOptions } from '@/features/documents/api/get-custodians';
 import {
   type DocumentFilters,
   documentsQueryOptions,
   useDocuments,
-} from '../../../features/documents/api/get-documents';
-import { DocumentTable } from '../../../features/documents/components/document-table';
-import { STATUS_LABELS } from '../../../features/documents/format';
-import { indexStateQueryOptions } from '../../../features/indexing/api/get-index-state';
-import { IndexStatusPanel } from '../../../features/indexing/components/index-status-panel';
-import { Can, useMatterPermission } from '../../../lib/authorization';
+} from '@/features/documents/api/get-documents';
+import { DocumentTable } from '@/features/documents/components/document-table';
+import { STATUS_LABELS } from '@/features/documents/format';
+import { indexStateQueryOptions } from '@/features/indexing/api/get-index-state';
+import { IndexStatusPanel } from '@/features/indexing/components/index-status-panel';
+import { Can, useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 function positive(raw: string | null): number | undefined {

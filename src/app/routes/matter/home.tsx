@@ -1,13 +1,13 @@
 import type { ReactNode } from 'react';
-import { Link } from 'react-router';
-import { ROLE_LABELS, permissionsOf, roleCan } from '../../../../shared/roles';
-import { ReviewCaution } from '../../../components/review-caution';
-import { PageHeader } from '../../../components/ui';
-import { useMatter } from '../../../features/matters/api/get-matter';
-import { MATTER_SECTIONS, matterSectionHref } from '../../../features/matters/matter-sections';
-import { useMatterRole } from '../../../lib/authorization';
-import { formatDate } from '../../../lib/format';
-import { PERMISSION_LABELS } from '../../../lib/permission-labels';
+import { Link } from 'react-router-dom';
+import { ROLE_LABELS, permissionsOf, roleCan } from '@shared/roles';
+import { ReviewCaution } from '@/components/review-caution';
+import { PageHeader } from '@/components/ui';
+import { useMatter } from '@/features/matters/api/get-matter';
+import { MATTER_SECTIONS, matterSectionHref } from '@/features/matters/matter-sections';
+import { useMatterRole } from '@/lib/authorization';
+import { formatDate } from '@/lib/format';
+import { PERMISSION_LABELS } from '@/lib/permission-labels';
 import { useMatterId } from './layout';
 
 /** The matter's home: what it is, your role and what that role may do, and where to go. */

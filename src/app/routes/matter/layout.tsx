@@ -1,12 +1,12 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { type LoaderFunctionArgs, NavLink, Outlet, useParams } from 'react-router';
-import { ROLE_LABELS, roleCan } from '../../../../shared/roles';
-import { Badge, ErrorPanel, LoadingBlock } from '../../../components/ui';
-import { matterQueryOptions, useMatter } from '../../../features/matters/api/get-matter';
-import { MATTER_SECTIONS, matterSectionHref } from '../../../features/matters/matter-sections';
-import { isApiError } from '../../../lib/api-client';
-import { MatterRoleProvider } from '../../../lib/authorization';
-import { cn } from '../../../lib/cn';
+import { type LoaderFunctionArgs, NavLink, Outlet, useParams } from 'react-router-dom';
+import { ROLE_LABELS, roleCan } from '@shared/roles';
+import { Badge, ErrorPanel, LoadingBlock } from '@/components/ui';
+import { matterQueryOptions, useMatter } from '@/features/matters/api/get-matter';
+import { MATTER_SECTIONS, matterSectionHref } from '@/features/matters/matter-sections';
+import { isApiError } from '@/lib/api-client';
+import { MatterRoleProvider } from '@/lib/authorization';
+import { cn } from '@/lib/cn';
 import { NotFoundPanel } from '../not-found';
 
 export function parseMatterId(raw: string | undefined): number {

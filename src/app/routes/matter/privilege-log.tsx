@@ -1,4 +1,4 @@
-import { PrivilegeLogPage } from '../../../features/privilege-log/components/privilege-log-page';
+import { PrivilegeLogPage } from '@/features/privilege-log/components/privilege-log-page';
 import { useMatterId } from './layout';
 
 /** /matters/:matterId/privilege-log */

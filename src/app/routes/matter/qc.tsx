@@ -1,4 +1,4 @@
-import { QcPage } from '../../../features/qc/components/qc-page';
+import { QcPage } from '@/features/qc/components/qc-page';
 import { useMatterId } from './layout';
 
 /** /matters/:matterId/qc (?sample=: one sample's calls) */

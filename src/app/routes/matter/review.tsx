@@ -1,15 +1,15 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { type LoaderFunctionArgs, useParams } from 'react-router';
-import { Notice } from '../../../components/ui';
-import { codesQueryOptions } from '../../../features/codes/api/get-codes';
-import { reviewQueryOptions } from '../../../features/review/api/get-review';
+import { type LoaderFunctionArgs, useParams } from 'react-router-dom';
+import { Notice } from '@/components/ui';
+import { codesQueryOptions } from '@/features/codes/api/get-codes';
+import { reviewQueryOptions } from '@/features/review/api/get-review';
 import {
   MissingDocument,
   ReviewPage,
   highlightFor,
-} from '../../../features/review/components/review-page';
-import { parseSearchState } from '../../../features/search/search-state';
-import { useMatterPermission } from '../../../lib/authorization';
+} from '@/features/review/components/review-page';
+import { parseSearchState } from '@/features/search/search-state';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

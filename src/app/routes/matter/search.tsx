@@ -1,9 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { RowSelectionState } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
-import { type LoaderFunctionArgs, useSearchParams } from 'react-router';
-import type { SearchFilters, SearchMode, SearchSort } from '../../../../shared/schemas/search';
-import { ReviewCaution } from '../../../components/review-caution';
+import { type LoaderFunctionArgs, useSearchParams } from 'react-router-dom';
+import type { SearchFilters, SearchMode, SearchSort } from '@shared/schemas/search';
+import { ReviewCaution } from '@/components/review-caution';
 import {
   Button,
   EmptyState,
@@ -12,20 +12,20 @@ import {
   PageHeader,
   SkeletonRows,
   Spinner,
-} from '../../../components/ui';
-import { codesQueryOptions, useCodes } from '../../../features/codes/api/get-codes';
-import { BulkCodingBar } from '../../../features/codes/components/bulk-coding-bar';
-import { useCustodians } from '../../../features/documents/api/get-custodians';
-import { useDocument } from '../../../features/documents/api/get-document';
-import { ExportButtons } from '../../../features/exports/components/export-buttons';
-import { SavedSearchesPanel } from '../../../features/saved-searches/components/saved-searches-panel';
-import { searchQueryOptions, useSearch } from '../../../features/search/api/run-search';
-import { HighlightLegend } from '../../../features/search/components/highlight';
-import { QueryForm } from '../../../features/search/components/query-form';
-import { RecentSearchesPanel } from '../../../features/search/components/recent-searches-panel';
-import { ResultsPager } from '../../../features/search/components/results-pager';
-import { RefineBar, ResultsTable } from '../../../features/search/components/results-table';
-import { SearchFiltersBar } from '../../../features/search/components/search-filters';
+} from '@/components/ui';
+import { codesQueryOptions, useCodes } from '@/features/codes/api/get-codes';
+import { BulkCodingBar } from '@/features/codes/components/bulk-coding-bar';
+import { useCustodians } from '@/features/documents/api/get-custodians';
+import { useDocument } from '@/features/documents/api/get-document';
+import { ExportButtons } from '@/features/exports/components/export-buttons';
+import { SavedSearchesPanel } from '@/features/saved-searches/components/saved-searches-panel';
+import { searchQueryOptions, useSearch } from '@/features/search/api/run-search';
+import { HighlightLegend } from '@/features/search/components/highlight';
+import { QueryForm } from '@/features/search/components/query-form';
+import { RecentSearchesPanel } from '@/features/search/components/recent-searches-panel';
+import { ResultsPager } from '@/features/search/components/results-pager';
+import { RefineBar, ResultsTable } from '@/features/search/components/results-table';
+import { SearchFiltersBar } from '@/features/search/components/search-filters';
 import {
   MODE_LABELS,
   type SearchState,
@@ -33,8 +33,8 @@ import {
   reviewHref,
   searchRequestFor,
   searchStateToParams,
-} from '../../../features/search/search-state';
-import { useMatterPermission } from '../../../lib/authorization';
+} from '@/features/search/search-state';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

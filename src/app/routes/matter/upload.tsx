@@ -1,11 +1,11 @@
 import type { QueryClient } from '@tanstack/react-query';
-import type { LoaderFunctionArgs } from 'react-router';
-import { Notice, PageHeader } from '../../../components/ui';
-import { custodiansQueryOptions } from '../../../features/documents/api/get-custodians';
-import { UploadPanel } from '../../../features/documents/components/upload-panel';
-import { indexStateQueryOptions } from '../../../features/indexing/api/get-index-state';
-import { IndexStatusPanel } from '../../../features/indexing/components/index-status-panel';
-import { useMatterPermission } from '../../../lib/authorization';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { Notice, PageHeader } from '@/components/ui';
+import { custodiansQueryOptions } from '@/features/documents/api/get-custodians';
+import { UploadPanel } from '@/features/documents/components/upload-panel';
+import { indexStateQueryOptions } from '@/features/indexing/api/get-index-state';
+import { IndexStatusPanel } from '@/features/indexing/components/index-status-panel';
+import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
 
 export const clientLoader =

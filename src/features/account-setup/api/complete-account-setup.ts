@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CompleteAccountSetupReq, MeResponse } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
-import { meQueryOptions } from '../../auth/api/get-me';
+import type { CompleteAccountSetupReq, MeResponse } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
+import { meQueryOptions } from '@/features/auth/api/get-me';
 
 /** Chooses the account's password (once); the server then signs this browser in as it. */
 export function completeAccountSetup(

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AccountSetupPreviewResponse } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
+import type { AccountSetupPreviewResponse } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
 
-export type { AccountSetupPreviewResponse } from '../../../../shared/schemas/auth';
+export type { AccountSetupPreviewResponse } from '@shared/schemas/auth';
 
 /** Whose account a set-up link is for (public: the token is the credential). */
 export function getAccountSetup(

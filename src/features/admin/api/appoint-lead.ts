@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AppointLeadReq, AppointLeadResponse } from '../../../../shared/schemas/admin';
-import { api } from '../../../lib/api-client';
+import type { AppointLeadReq, AppointLeadResponse } from '@shared/schemas/admin';
+import { api } from '@/lib/api-client';
 import { adminMattersQueryOptions } from './get-admin-matters';
 
 export interface AppointLeadInput extends AppointLeadReq {

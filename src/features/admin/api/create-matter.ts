@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
-import type { CreateMatterResponse, createMatterSchema } from '../../../../shared/schemas/matters';
-import { api } from '../../../lib/api-client';
+import type { CreateMatterResponse, createMatterSchema } from '@shared/schemas/matters';
+import { api } from '@/lib/api-client';
 import { usersQueryOptions } from './get-users';
 import { adminMattersQueryOptions } from './get-admin-matters';
 

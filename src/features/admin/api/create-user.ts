@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CreateUserReq, CreateUserResponse } from '../../../../shared/schemas/admin';
-import { api } from '../../../lib/api-client';
+import type { CreateUserReq, CreateUserResponse } from '@shared/schemas/admin';
+import { api } from '@/lib/api-client';
 import { usersQueryOptions } from './get-users';
 
 /** A new account: with a temporary password the admin hands over, or (none given) an e-mailed set-up link. */

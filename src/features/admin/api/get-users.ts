@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AdminUsersResponse } from '../../../../shared/schemas/admin';
-import { api } from '../../../lib/api-client';
+import type { AdminUsersResponse } from '@shared/schemas/admin';
+import { api } from '@/lib/api-client';
 
-export type { AdminUser } from '../../../../shared/schemas/admin';
+export type { AdminUser } from '@shared/schemas/admin';
 
 export function getUsers(signal?: AbortSignal): Promise<AdminUsersResponse> {
   return api.get<AdminUsersResponse>('/api/admin/users', { signal });

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AuditPageResponse } from '../../../../shared/schemas/audit';
-import { api } from '../../../lib/api-client';
+import type { AuditPageResponse } from '@shared/schemas/audit';
+import { api } from '@/lib/api-client';
 
-export type { AuditEvent, AuditPageResponse } from '../../../../shared/schemas/audit';
+export type { AuditEvent, AuditPageResponse } from '@shared/schemas/audit';
 
 export interface AuditFilters {
   /** User id. */

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ChangePasswordReq, MeResponse } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
+import type { ChangePasswordReq, MeResponse } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
 import { meQueryOptions } from './get-me';
 
 /** Ends every session of the account; the server starts a fresh one for this browser. */

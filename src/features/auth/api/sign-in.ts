@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MeResponse } from '../../../../shared/schemas/auth';
-import type { SignInReq } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
+import type { MeResponse } from '@shared/schemas/auth';
+import type { SignInReq } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
 import { meQueryOptions } from './get-me';
 
 export function signIn(input: SignInReq): Promise<MeResponse> {

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
+import { api } from '@/lib/api-client';
 
 export function signOut(): Promise<void> {
   return api.post<void>('/api/auth/sign-out', undefined, { allowUnauthenticated: true });

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Batch } from '../../../../shared/schemas/batches';
-import { api } from '../../../lib/api-client';
+import type { Batch } from '@shared/schemas/batches';
+import { api } from '@/lib/api-client';
 import { batchesQueryKey } from './keys';
 
 /** POST /api/matters/:matterId/batches/:batchId/checkout */

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { BatchResponse } from '../../../../shared/schemas/batches';
-import { api } from '../../../lib/api-client';
+import type { BatchResponse } from '@shared/schemas/batches';
+import { api } from '@/lib/api-client';
 import { batchesQueryKey } from './keys';
 
-export type { BatchDocument, BatchResponse } from '../../../../shared/schemas/batches';
+export type { BatchDocument, BatchResponse } from '@shared/schemas/batches';
 
 /** GET /api/matters/:matterId/batches/:batchId: the batch and its documents in order. */
 export function getBatch(matterId: number, batchId: number, signal?: AbortSignal) {

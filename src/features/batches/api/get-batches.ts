@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { BatchKind, BatchesResponse } from '../../../../shared/schemas/batches';
-import { api } from '../../../lib/api-client';
+import type { BatchKind, BatchesResponse } from '@shared/schemas/batches';
+import { api } from '@/lib/api-client';
 import { batchesQueryKey } from './keys';
 
-export type { Batch, BatchesResponse } from '../../../../shared/schemas/batches';
+export type { Batch, BatchesResponse } from '@shared/schemas/batches';
 
 /** GET /api/matters/:matterId/batches (?mine=true: the caller's own). */
 export function getBatches(

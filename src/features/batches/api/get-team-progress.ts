@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TeamProgressResponse } from '../../../../shared/schemas/batches';
-import { api } from '../../../lib/api-client';
+import type { TeamProgressResponse } from '@shared/schemas/batches';
+import { api } from '@/lib/api-client';
 import { batchesQueryKey } from './keys';
 
 /** GET /api/matters/:matterId/batches/progress (leads and attorneys). */

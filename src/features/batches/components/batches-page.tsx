@@ -1,13 +1,13 @@
 import { type FormEvent, useState } from 'react';
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import {
   BATCH_KIND_LABELS,
   BATCH_SIZE_DEFAULT,
   BATCH_STATE_LABELS,
   type Batch,
-} from '../../../../shared/schemas/batches';
-import type { SearchMode } from '../../../../shared/schemas/search';
-import { ReviewCaution } from '../../../components/review-caution';
+} from '@shared/schemas/batches';
+import type { SearchMode } from '@shared/schemas/search';
+import { ReviewCaution } from '@/components/review-caution';
 import {
   Button,
   EmptyState,
@@ -22,10 +22,10 @@ import {
   Tr,
   describeError,
   inputClass,
-} from '../../../components/ui';
-import { useMatterPermission } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
-import { useSavedSearches } from '../../saved-searches/api/get-saved-searches';
+} from '@/components/ui';
+import { useMatterPermission } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { useSavedSearches } from '@/features/saved-searches/api/get-saved-searches';
 import { useAssignBatch } from '../api/assign-batch';
 import { useCheckinBatch } from '../api/checkin-batch';
 import { useCheckoutBatch } from '../api/checkout-batch';

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { BulkCodingReq, BulkCodingResponse } from '../../../../shared/schemas/codes';
-import { api } from '../../../lib/api-client';
+import type { BulkCodingReq, BulkCodingResponse } from '@shared/schemas/codes';
+import { api } from '@/lib/api-client';
 import { codesQueryKey } from './get-codes';
 import { patchCachedCoding } from './patch-cached-coding';
 

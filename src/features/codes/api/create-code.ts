@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CodeResponse, CreateCodeReq } from '../../../../shared/schemas/codes';
-import { api } from '../../../lib/api-client';
+import type { CodeResponse, CreateCodeReq } from '@shared/schemas/codes';
+import { api } from '@/lib/api-client';
 import { codesQueryKey } from './get-codes';
 
 /** POST /api/matters/:matterId/codes (codes.manage). */

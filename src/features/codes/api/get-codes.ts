@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Code, CodesResponse } from '../../../../shared/schemas/codes';
-import { api } from '../../../lib/api-client';
+import type { Code, CodesResponse } from '@shared/schemas/codes';
+import { api } from '@/lib/api-client';
 
-export type { Code, CodesResponse } from '../../../../shared/schemas/codes';
+export type { Code, CodesResponse } from '@shared/schemas/codes';
 
 /** GET /api/matters/:matterId/codes: every code, archived ones included, in sortOrder. */
 export function getCodes(matterId: number, signal?: AbortSignal): Promise<CodesResponse> {

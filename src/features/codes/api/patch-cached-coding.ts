@@ -1,9 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
-import type { CodeRef } from '../../../../shared/schemas/search';
-import type { ReviewResponse } from '../../../../shared/schemas/review';
-import type { SearchResponse } from '../../../../shared/schemas/search';
-import { reviewsQueryKey } from '../../review/api/keys';
-import { searchesQueryKey } from '../../search/api/keys';
+import type { CodeRef } from '@shared/schemas/search';
+import type { ReviewResponse } from '@shared/schemas/review';
+import type { SearchResponse } from '@shared/schemas/search';
+import { reviewsQueryKey } from '@/features/review/api/keys';
+import { searchesQueryKey } from '@/features/search/api/keys';
 
 /** A snapshot of every cached query a coding change touches, for rollback. */
 export type CodingSnapshot = [readonly unknown[], unknown][];

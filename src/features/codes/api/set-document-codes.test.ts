@@ -1,9 +1,9 @@
 import { MutationObserver, QueryClient } from '@tanstack/react-query';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import type { ReviewResponse } from '../../../../shared/schemas/review';
-import type { SearchHit, SearchResponse } from '../../../../shared/schemas/search';
-import { reviewsQueryKey } from '../../review/api/keys';
-import { searchesQueryKey } from '../../search/api/keys';
+import type { ReviewResponse } from '@shared/schemas/review';
+import type { SearchHit, SearchResponse } from '@shared/schemas/search';
+import { reviewsQueryKey } from '@/features/review/api/keys';
+import { searchesQueryKey } from '@/features/search/api/keys';
 import { setDocumentCodesMutationOptions } from './set-document-codes';
 
 // Optimistic coding (TanStack Query's documented pattern: onMutate writes the cache and

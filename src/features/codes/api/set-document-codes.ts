@@ -4,11 +4,11 @@ import {
   useMutation,
   useQueryClient,
 } from '@tanstack/react-query';
-import type { DocumentCodesResponse, PrivilegeFieldsReq } from '../../../../shared/schemas/codes';
-import type { CodeRef } from '../../../../shared/schemas/search';
-import { api } from '../../../lib/api-client';
-import { batchesQueryKey } from '../../batches/api/keys';
-import { reviewsQueryKey } from '../../review/api/keys';
+import type { DocumentCodesResponse, PrivilegeFieldsReq } from '@shared/schemas/codes';
+import type { CodeRef } from '@shared/schemas/search';
+import { api } from '@/lib/api-client';
+import { batchesQueryKey } from '@/features/batches/api/keys';
+import { reviewsQueryKey } from '@/features/review/api/keys';
 import { codesQueryKey } from './get-codes';
 import {
   type CodingSnapshot,

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CodeResponse, UpdateCodeReq } from '../../../../shared/schemas/codes';
-import { api } from '../../../lib/api-client';
+import type { CodeResponse, UpdateCodeReq } from '@shared/schemas/codes';
+import { api } from '@/lib/api-client';
 import { codesQueryKey } from './get-codes';
 
 /** PATCH /api/matters/:matterId/codes/:codeId (codes.manage): rename, re-key, archive, restore. */

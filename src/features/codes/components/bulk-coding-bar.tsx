@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Button, Notice, Select, describeError } from '../../../components/ui';
+import { Button, Notice, Select, describeError } from '@/components/ui';
 import { useBulkCodeDocuments } from '../api/bulk-code-documents';
 import { type Code, activeCodes } from '../api/get-codes';
 

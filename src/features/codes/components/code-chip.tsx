@@ -1,5 +1,5 @@
-import { CODE_COLOURS, type CodeColour } from '../../../../shared/schemas/codes';
-import { cn } from '../../../lib/cn';
+import { CODE_COLOURS, type CodeColour } from '@shared/schemas/codes';
+import { cn } from '@/lib/cn';
 
 /** A code as a coloured chip (palette pairs meet WCAG AA, code-colours.test.ts). */
 export function CodeChip({

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { DimensionLabelResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { DimensionLabelResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { dimensionsQueryKey } from './get-dimensions';
 import { conceptsPath } from './keys';
 

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CreateGroupingReq, GroupingResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { CreateGroupingReq, GroupingResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { groupingQueryOptions } from './get-grouping';
 import { groupingsQueryKey } from './get-groupings';
 import { conceptsPath } from './keys';

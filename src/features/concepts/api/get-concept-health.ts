@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { HealthResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { HealthResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { conceptsPath, conceptsQueryKey } from './keys';
 
-export type { HealthMessage, HealthResponse } from '../../../../shared/schemas/concepts';
+export type { HealthMessage, HealthResponse } from '@shared/schemas/concepts';
 
 /** The serving version's health: sizes, norms, orthogonality, folding-in drift, advice. */
 export function getConceptHealth(matterId: number, signal?: AbortSignal): Promise<HealthResponse> {

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { DimensionsQuery, DimensionsResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { DimensionsQuery, DimensionsResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { conceptsPath, conceptsQueryKey } from './keys';
 
 export type {
@@ -8,7 +8,7 @@ export type {
   DimensionDocument,
   DimensionTerm,
   DimensionsResponse,
-} from '../../../../shared/schemas/concepts';
+} from '@shared/schemas/concepts';
 
 /** The leading concept dimensions: strongest terms at both ends, typical documents, labels. */
 export function getDimensions(

@@ -1,9 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { MapQuery, MapResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { MapQuery, MapResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { conceptsPath, conceptsQueryKey } from './keys';
 
-export type { MapLookup, MapResponse } from '../../../../shared/schemas/concepts';
+export type { MapLookup, MapResponse } from '@shared/schemas/concepts';
 
 /** Every document of the serving version as a point on two concept dimensions. */
 export function getDocumentMap(

@@ -1,14 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { GroupingResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { GroupingResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { groupingsQueryKey } from './get-groupings';
 import { conceptsPath } from './keys';
 
-export type {
-  ConceptGroup,
-  GroupTerm,
-  GroupingResponse,
-} from '../../../../shared/schemas/concepts';
+export type { ConceptGroup, GroupTerm, GroupingResponse } from '@shared/schemas/concepts';
 
 /** One grouping with its groups (size, top terms). */
 export function getGrouping(

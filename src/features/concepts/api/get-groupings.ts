@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { GroupingsListResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { GroupingsListResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { conceptsPath, conceptsQueryKey } from './keys';
 
-export type { GroupingSummary, GroupingsListResponse } from '../../../../shared/schemas/concepts';
+export type { GroupingSummary, GroupingsListResponse } from '@shared/schemas/concepts';
 
 /** The k-means groupings already run on the serving version. */
 export function getGroupings(

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { NeighboursQuery, NeighboursResponse } from '../../../../shared/schemas/concepts';
-import { api } from '../../../lib/api-client';
+import type { NeighboursQuery, NeighboursResponse } from '@shared/schemas/concepts';
+import { api } from '@/lib/api-client';
 import { conceptsPath, conceptsQueryKey } from './keys';
 
-export type { NeighbourTerm, NeighboursResponse } from '../../../../shared/schemas/concepts';
+export type { NeighbourTerm, NeighboursResponse } from '@shared/schemas/concepts';
 
 /** The terms nearest to a word in the concept space, with their cosine similarity. */
 export function getTermNeighbours(

@@ -1,7 +1,7 @@
 import type { UseQueryResult } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
-import { EmptyState, QueryBoundary, describeError } from '../../../components/ui';
-import { isApiError } from '../../../lib/api-client';
+import { EmptyState, QueryBoundary, describeError } from '@/components/ui';
+import { isApiError } from '@/lib/api-client';
 
 /** The concept routes answer 409 while the matter has no serving index version. */
 export function isNoIndexError(error: unknown): boolean {

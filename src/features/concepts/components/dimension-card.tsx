@@ -1,13 +1,10 @@
 import { type FormEvent, useId, useState } from 'react';
-import { Link } from 'react-router';
-import {
-  type ConceptDimension,
-  DIMENSION_LABEL_MAX_LENGTH,
-} from '../../../../shared/schemas/concepts';
-import { Badge, Button, Notice, describeError, inputClass } from '../../../components/ui';
-import { fieldErrorOf } from '../../../lib/api-client';
-import { Can } from '../../../lib/authorization';
-import { formatDate } from '../../../lib/format';
+import { Link } from 'react-router-dom';
+import { type ConceptDimension, DIMENSION_LABEL_MAX_LENGTH } from '@shared/schemas/concepts';
+import { Badge, Button, Notice, describeError, inputClass } from '@/components/ui';
+import { fieldErrorOf } from '@/lib/api-client';
+import { Can } from '@/lib/authorization';
+import { formatDate } from '@/lib/format';
 import { useClearDimensionLabel } from '../api/clear-dimension-label';
 import { useSetDimensionLabel } from '../api/set-dimension-label';
 import { formatFigure, formatShare } from '../format';

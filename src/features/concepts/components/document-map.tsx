@@ -8,9 +8,9 @@ import {
   useRef,
   useState,
 } from 'react';
-import type { MapResponse } from '../../../../shared/schemas/concepts';
-import { Button } from '../../../components/ui';
-import { cn } from '../../../lib/cn';
+import type { MapResponse } from '@shared/schemas/concepts';
+import { Button } from '@/components/ui';
+import { cn } from '@/lib/cn';
 import {
   type ColourBy,
   type MapCategory,

@@ -1,19 +1,19 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { type FormEvent, useEffect, useId, useState } from 'react';
-import type { SpectrumVersion } from '../../../../shared/schemas/concepts';
+import type { SpectrumVersion } from '@shared/schemas/concepts';
 import {
   INDEX_K_MAX,
   INDEX_WEIGHTINGS,
   type IndexStateResponse,
   type IndexWeighting,
-} from '../../../../shared/schemas/indexing';
-import { Button, Notice, Select, describeError, inputClass } from '../../../components/ui';
-import { fieldErrorOf } from '../../../lib/api-client';
-import { useIndexState } from '../../indexing/api/get-index-state';
-import { useRebuildIndex } from '../../indexing/api/rebuild-index';
-import { useJob } from '../../jobs/api/get-job';
-import { isJobActive } from '../../jobs/api/get-matter-jobs';
-import { JobProgress } from '../../jobs/components/job-progress';
+} from '@shared/schemas/indexing';
+import { Button, Notice, Select, describeError, inputClass } from '@/components/ui';
+import { fieldErrorOf } from '@/lib/api-client';
+import { useIndexState } from '@/features/indexing/api/get-index-state';
+import { useRebuildIndex } from '@/features/indexing/api/rebuild-index';
+import { useJob } from '@/features/jobs/api/get-job';
+import { isJobActive } from '@/features/jobs/api/get-matter-jobs';
+import { JobProgress } from '@/features/jobs/components/job-progress';
 import { conceptsQueryKey } from '../api/keys';
 import { formatShare } from '../format';
 

@@ -10,7 +10,7 @@ import {
   YAxis,
 } from 'recharts';
 import type { ReactNode } from 'react';
-import type { SpectrumVersion } from '../../../../shared/schemas/concepts';
+import type { SpectrumVersion } from '@shared/schemas/concepts';
 import { formatFigure } from '../format';
 
 // Colours from the theme (src/styles.css); every series also differs by its mark

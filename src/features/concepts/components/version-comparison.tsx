@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
-import type { SpectrumVersion } from '../../../../shared/schemas/concepts';
-import { TBody, THead, Table, Td, Th, Tr } from '../../../components/ui';
-import { formatDateTime } from '../../../lib/format';
+import type { SpectrumVersion } from '@shared/schemas/concepts';
+import { TBody, THead, Table, Td, Th, Tr } from '@/components/ui';
+import { formatDateTime } from '@/lib/format';
 import {
   conditionNumberOf,
   formatCount,

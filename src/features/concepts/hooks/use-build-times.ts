@@ -1,5 +1,5 @@
 import { useCallback, useEffect } from 'react';
-import type { IndexStateResponse } from '../../../../shared/schemas/indexing';
+import type { IndexStateResponse } from '@shared/schemas/indexing';
 
 // The spectrum answer carries no build time; the index state does, for the serving
 // version only. Remembering it per index version for the browser session lets the

@@ -1,6 +1,6 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef } from 'react';
-import { useIndexState } from '../../indexing/api/get-index-state';
+import { useIndexState } from '@/features/indexing/api/get-index-state';
 import { conceptsQueryKey } from '../api/keys';
 
 /**

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { DevMailResponse } from '../../../../shared/schemas/dev';
-import { api } from '../../../lib/api-client';
+import type { DevMailResponse } from '@shared/schemas/dev';
+import { api } from '@/lib/api-client';
 
-export type { DevMailMessage, DevMailResponse } from '../../../../shared/schemas/dev';
+export type { DevMailMessage, DevMailResponse } from '@shared/schemas/dev';
 
 /** The fake SMTP server's mailbox, newest first; the endpoint is a 404 outside demo/dev mode. */
 export function getDevMail(signal?: AbortSignal): Promise<DevMailResponse> {

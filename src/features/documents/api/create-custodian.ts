@@ -1,9 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type {
-  CreateCustodianReq,
-  CreateCustodianResponse,
-} from '../../../../shared/schemas/documents';
-import { api } from '../../../lib/api-client';
+import type { CreateCustodianReq, CreateCustodianResponse } from '@shared/schemas/documents';
+import { api } from '@/lib/api-client';
 import { custodiansQueryKey } from './get-custodians';
 
 /** Adds a custodian (the person or source the documents were collected from). */

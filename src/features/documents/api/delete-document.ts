@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
-import { indexStateQueryKey } from '../../indexing/api/get-index-state';
-import { matterQueryOptions } from '../../matters/api/get-matter';
+import { api } from '@/lib/api-client';
+import { indexStateQueryKey } from '@/features/indexing/api/get-index-state';
+import { matterQueryOptions } from '@/features/matters/api/get-matter';
 import { documentsQueryKey } from './get-documents';
 
 /** Removes a document from the matter (the audit log keeps the record of it). */

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { CustodiansResponse } from '../../../../shared/schemas/documents';
-import { api } from '../../../lib/api-client';
+import type { CustodiansResponse } from '@shared/schemas/documents';
+import { api } from '@/lib/api-client';
 
-export type { Custodian, CustodiansResponse } from '../../../../shared/schemas/documents';
+export type { Custodian, CustodiansResponse } from '@shared/schemas/documents';
 
 /** The matter's custodians with their document counts. */
 export function getCustodians(matterId: number, signal?: AbortSignal): Promise<CustodiansResponse> {

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { DocumentTextResponse } from '../../../../shared/schemas/documents';
-import { api } from '../../../lib/api-client';
+import type { DocumentTextResponse } from '@shared/schemas/documents';
+import { api } from '@/lib/api-client';
 import { documentsQueryKey } from './get-documents';
 
-export type { DocumentTextResponse } from '../../../../shared/schemas/documents';
+export type { DocumentTextResponse } from '@shared/schemas/documents';
 
 /** The extracted text of a document (what the index and keyword search read). */
 export function getDocumentText(

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { DocumentDetailResponse } from '../../../../shared/schemas/documents';
-import { api } from '../../../lib/api-client';
+import type { DocumentDetailResponse } from '@shared/schemas/documents';
+import { api } from '@/lib/api-client';
 import { documentsQueryKey, isInFlight } from './get-documents';
 
-export type { DocumentDetailResponse, DocumentRef } from '../../../../shared/schemas/documents';
+export type { DocumentDetailResponse, DocumentRef } from '@shared/schemas/documents';
 
 /** A document's metadata, its family (parent e-mail and attachments) and its duplicates. */
 export function getDocument(

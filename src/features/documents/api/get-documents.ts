@@ -1,13 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { DocumentStatus, DocumentsPageResponse } from '../../../../shared/schemas/documents';
-import { api } from '../../../lib/api-client';
+import type { DocumentStatus, DocumentsPageResponse } from '@shared/schemas/documents';
+import { api } from '@/lib/api-client';
 
 export type {
   DocumentListItem,
   DocumentsPageResponse,
   DocumentStatus,
   IndexState,
-} from '../../../../shared/schemas/documents';
+} from '@shared/schemas/documents';
 
 /** The query string of GET /api/matters/:matterId/documents (shared/schemas/documents.ts). */
 export interface DocumentFilters {

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { RetryDocumentResponse } from '../../../../shared/schemas/documents';
-import { api } from '../../../lib/api-client';
-import { indexStateQueryKey } from '../../indexing/api/get-index-state';
-import { matterJobsQueryKey } from '../../jobs/api/get-matter-jobs';
+import type { RetryDocumentResponse } from '@shared/schemas/documents';
+import { api } from '@/lib/api-client';
+import { indexStateQueryKey } from '@/features/indexing/api/get-index-state';
+import { matterJobsQueryKey } from '@/features/jobs/api/get-matter-jobs';
 import { documentsQueryKey } from './get-documents';
 
 /** Queues a failed document for extraction again (202 with the document and the job). */

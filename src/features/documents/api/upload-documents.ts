@@ -1,5 +1,5 @@
-import { apiErrorSchema } from '../../../../shared/errors';
-import { ApiError } from '../../../lib/api-client';
+import { apiErrorSchema } from '@shared/errors';
+import { ApiError } from '@/lib/api-client';
 
 /**
  * POST /api/matters/:matterId/documents, multipart: the files in the field `files` and

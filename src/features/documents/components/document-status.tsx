@@ -1,6 +1,6 @@
-import { Link } from 'react-router';
-import type { DocumentStatus, IndexState } from '../../../../shared/schemas/documents';
-import { Badge, Spinner } from '../../../components/ui';
+import { Link } from 'react-router-dom';
+import type { DocumentStatus, IndexState } from '@shared/schemas/documents';
+import { Badge, Spinner } from '@/components/ui';
 import { INDEX_STATE_LABELS, STATUS_LABELS } from '../format';
 
 const STATUS_TONES = {

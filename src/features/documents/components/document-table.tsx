@@ -14,12 +14,12 @@ import {
   useTable,
 } from '@tanstack/react-table';
 import { useState } from 'react';
-import { Link, useNavigate } from 'react-router';
-import type { DocumentListItem } from '../../../../shared/schemas/documents';
-import { Button, Dialog, Notice, describeError } from '../../../components/ui';
-import { useMatterPermission } from '../../../lib/authorization';
-import { cn } from '../../../lib/cn';
-import { formatDate } from '../../../lib/format';
+import { Link, useNavigate } from 'react-router-dom';
+import type { DocumentListItem } from '@shared/schemas/documents';
+import { Button, Dialog, Notice, describeError } from '@/components/ui';
+import { useMatterPermission } from '@/lib/authorization';
+import { cn } from '@/lib/cn';
+import { formatDate } from '@/lib/format';
 import { useDeleteDocument } from '../api/delete-document';
 import { useRetryDocument } from '../api/retry-document';
 import { docTypeLabel, formatBytes } from '../format';

@@ -1,7 +1,7 @@
-import { Link } from 'react-router';
-import type { DocumentDetailResponse, DocumentRef } from '../../../../shared/schemas/documents';
-import { ErrorPanel, Notice, SkeletonRows } from '../../../components/ui';
-import { formatDate, formatDateTime } from '../../../lib/format';
+import { Link } from 'react-router-dom';
+import type { DocumentDetailResponse, DocumentRef } from '@shared/schemas/documents';
+import { ErrorPanel, Notice, SkeletonRows } from '@/components/ui';
+import { formatDate, formatDateTime } from '@/lib/format';
 import { documentOriginalHref } from '../api/get-document';
 import { useDocumentText } from '../api/get-document-text';
 import { docTypeLabel, formatBytes } from '../format';

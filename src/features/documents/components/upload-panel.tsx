@@ -1,20 +1,13 @@
 import { useQueries } from '@tanstack/react-query';
 import { type DragEvent, type FormEvent, useId, useMemo, useRef, useState } from 'react';
-import { Link } from 'react-router';
-import { NAME_MAX_LENGTH } from '../../../../shared/limits';
-import type { DocumentListItem, UploadedFile } from '../../../../shared/schemas/documents';
-import {
-  Button,
-  EmptyState,
-  Notice,
-  Select,
-  TextField,
-  describeError,
-} from '../../../components/ui';
-import { cn } from '../../../lib/cn';
-import { JobProgress } from '../../jobs/components/job-progress';
-import { ProgressBar } from '../../jobs/components/progress-bar';
-import { useJob } from '../../jobs/api/get-job';
+import { Link } from 'react-router-dom';
+import { NAME_MAX_LENGTH } from '@shared/limits';
+import type { DocumentListItem, UploadedFile } from '@shared/schemas/documents';
+import { Button, EmptyState, Notice, Select, TextField, describeError } from '@/components/ui';
+import { cn } from '@/lib/cn';
+import { JobProgress } from '@/features/jobs/components/job-progress';
+import { ProgressBar } from '@/features/jobs/components/progress-bar';
+import { useJob } from '@/features/jobs/api/get-job';
 import { useCustodians } from '../api/get-custodians';
 import { documentsQueryOptions } from '../api/get-documents';
 import { formatBytes } from '../format';

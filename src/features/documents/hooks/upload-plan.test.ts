@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { UploadedFile } from '../../../../shared/schemas/documents';
+import type { UploadedFile } from '@shared/schemas/documents';
 import { perFileFractions } from '../api/upload-documents';
 import { chunkForUpload, matchResults } from './upload-plan';
 

@@ -1,4 +1,4 @@
-import type { UploadedFile } from '../../../../shared/schemas/documents';
+import type { UploadedFile } from '@shared/schemas/documents';
 
 // Files go up in requests of modest size so a slow or refused request costs little and a
 // single large file travels alone; each request becomes one batch on the server.

@@ -1,11 +1,11 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
-import type { UploadBatchResponse, UploadedFile } from '../../../../shared/schemas/documents';
-import { isApiError } from '../../../lib/api-client';
-import { describeError } from '../../../components/ui';
-import { indexStateQueryKey } from '../../indexing/api/get-index-state';
-import { matterJobsQueryKey } from '../../jobs/api/get-matter-jobs';
-import { matterQueryOptions } from '../../matters/api/get-matter';
+import type { UploadBatchResponse, UploadedFile } from '@shared/schemas/documents';
+import { isApiError } from '@/lib/api-client';
+import { describeError } from '@/components/ui';
+import { indexStateQueryKey } from '@/features/indexing/api/get-index-state';
+import { matterJobsQueryKey } from '@/features/jobs/api/get-matter-jobs';
+import { matterQueryOptions } from '@/features/matters/api/get-matter';
 import { custodiansQueryKey } from '../api/get-custodians';
 import { documentsQueryKey } from '../api/get-documents';
 import { perFileFractions, uploadDocuments } from '../api/upload-documents';

@@ -1,4 +1,4 @@
-import type { SearchFilters, SearchMode, SearchSort } from '../../../../shared/schemas/search';
+import type { SearchFilters, SearchMode, SearchSort } from '@shared/schemas/search';
 
 // The CSV exports are plain GET downloads (Content-Disposition: attachment), so the
 // browser saves them itself; the server audits each one.

@@ -1,5 +1,5 @@
-import type { SearchFilters, SearchMode, SearchSort } from '../../../../shared/schemas/search';
-import { Can } from '../../../lib/authorization';
+import type { SearchFilters, SearchMode, SearchSort } from '@shared/schemas/search';
+import { Can } from '@/lib/authorization';
 import { privilegeLogCsvHref, resultsCsvHref } from '../api/export-links';
 
 const linkClass =

@@ -1,13 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { IndexStateResponse } from '../../../../shared/schemas/indexing';
-import { api } from '../../../lib/api-client';
-import { isJobActive } from '../../jobs/api/get-matter-jobs';
+import type { IndexStateResponse } from '@shared/schemas/indexing';
+import { api } from '@/lib/api-client';
+import { isJobActive } from '@/features/jobs/api/get-matter-jobs';
 
-export type {
-  IndexCounts,
-  IndexStateResponse,
-  IndexVersionInfo,
-} from '../../../../shared/schemas/indexing';
+export type { IndexCounts, IndexStateResponse, IndexVersionInfo } from '@shared/schemas/indexing';
 
 /** The state of the matter's concept-space index: counts, serving version, any build. */
 export function getIndexState(matterId: number, signal?: AbortSignal): Promise<IndexStateResponse> {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { RebuildIndexReq, RebuildIndexResponse } from '../../../../shared/schemas/indexing';
-import { api } from '../../../lib/api-client';
-import { matterJobsQueryKey } from '../../jobs/api/get-matter-jobs';
+import type { RebuildIndexReq, RebuildIndexResponse } from '@shared/schemas/indexing';
+import { api } from '@/lib/api-client';
+import { matterJobsQueryKey } from '@/features/jobs/api/get-matter-jobs';
 import { indexStateQueryKey } from './get-index-state';
 
 /** Queues a full rebuild of the concept space (202 with the job); the old version serves until it is done. */

@@ -1,12 +1,12 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef } from 'react';
-import type { IndexStateResponse } from '../../../../shared/schemas/indexing';
-import { Button, ErrorPanel, Notice, SkeletonRows, describeError } from '../../../components/ui';
-import { Can } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
-import { documentsQueryKey } from '../../documents/api/get-documents';
-import { isJobActive } from '../../jobs/api/get-matter-jobs';
-import { JobProgress } from '../../jobs/components/job-progress';
+import type { IndexStateResponse } from '@shared/schemas/indexing';
+import { Button, ErrorPanel, Notice, SkeletonRows, describeError } from '@/components/ui';
+import { Can } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { documentsQueryKey } from '@/features/documents/api/get-documents';
+import { isJobActive } from '@/features/jobs/api/get-matter-jobs';
+import { JobProgress } from '@/features/jobs/components/job-progress';
 import { useIndexState } from '../api/get-index-state';
 import { useRebuildIndex } from '../api/rebuild-index';
 

@@ -1,9 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type {
-  AcceptInvitationReq,
-  AcceptInvitationResponse,
-} from '../../../../shared/schemas/invitations';
-import { api } from '../../../lib/api-client';
+import type { AcceptInvitationReq, AcceptInvitationResponse } from '@shared/schemas/invitations';
+import { api } from '@/lib/api-client';
 
 /**
  * Accepts with a new account (name + password) or an existing one (its password, or

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { InvitationPreviewResponse } from '../../../../shared/schemas/invitations';
-import { api } from '../../../lib/api-client';
+import type { InvitationPreviewResponse } from '@shared/schemas/invitations';
+import { api } from '@/lib/api-client';
 
-export type { InvitationPreviewResponse } from '../../../../shared/schemas/invitations';
+export type { InvitationPreviewResponse } from '@shared/schemas/invitations';
 
 /** What the link may show before it is accepted (public: the token is the credential). */
 export function getInvitation(

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { JobResponse } from '../../../../shared/schemas/jobs';
-import { api } from '../../../lib/api-client';
+import type { JobResponse } from '@shared/schemas/jobs';
+import { api } from '@/lib/api-client';
 import { isJobActive } from './get-matter-jobs';
 
 /** One job's progress (GET /api/jobs/:jobId). */

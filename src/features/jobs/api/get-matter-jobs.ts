@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Job, JobKind, JobsResponse } from '../../../../shared/schemas/jobs';
-import { api } from '../../../lib/api-client';
+import type { Job, JobKind, JobsResponse } from '@shared/schemas/jobs';
+import { api } from '@/lib/api-client';
 
-export type { Job, JobKind, JobStatus, JobsResponse } from '../../../../shared/schemas/jobs';
+export type { Job, JobKind, JobStatus, JobsResponse } from '@shared/schemas/jobs';
 
 export interface MatterJobsFilters {
   /** Only queued or running jobs. */

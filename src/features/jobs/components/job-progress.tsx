@@ -1,6 +1,6 @@
-import type { Job } from '../../../../shared/schemas/jobs';
-import { Badge } from '../../../components/ui';
-import { formatDateTime } from '../../../lib/format';
+import type { Job } from '@shared/schemas/jobs';
+import { Badge } from '@/components/ui';
+import { formatDateTime } from '@/lib/format';
 import { isJobActive } from '../api/get-matter-jobs';
 import { ProgressBar } from './progress-bar';
 

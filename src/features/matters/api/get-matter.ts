@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MatterHomeResponse } from '../../../../shared/schemas/matters';
-import { api } from '../../../lib/api-client';
+import type { MatterHomeResponse } from '@shared/schemas/matters';
+import { api } from '@/lib/api-client';
 
-export type { MatterHomeResponse } from '../../../../shared/schemas/matters';
+export type { MatterHomeResponse } from '@shared/schemas/matters';
 
 /** The matter, the caller's role and permissions on it, its leads and counts. */
 export function getMatter(matterId: number, signal?: AbortSignal): Promise<MatterHomeResponse> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ChangeRoleReq, MemberResponse } from '../../../../shared/schemas/members';
-import { api } from '../../../lib/api-client';
+import type { ChangeRoleReq, MemberResponse } from '@shared/schemas/members';
+import { api } from '@/lib/api-client';
 import { membersQueryOptions } from './get-members';
 
 export interface ChangeMemberRoleInput extends ChangeRoleReq {

@@ -1,12 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MembersResponse } from '../../../../shared/schemas/members';
-import { api } from '../../../lib/api-client';
+import type { MembersResponse } from '@shared/schemas/members';
+import { api } from '@/lib/api-client';
 
-export type {
-  Member,
-  MembersResponse,
-  PendingInvitation,
-} from '../../../../shared/schemas/members';
+export type { Member, MembersResponse, PendingInvitation } from '@shared/schemas/members';
 
 /** Members and pending invitations of a matter (lead only). */
 export function getMembers(matterId: number, signal?: AbortSignal): Promise<MembersResponse> {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { GrantMemberReq, MemberResponse } from '../../../../shared/schemas/members';
-import { api } from '../../../lib/api-client';
-import { matterQueryOptions } from '../../matters/api/get-matter';
+import type { GrantMemberReq, MemberResponse } from '@shared/schemas/members';
+import { api } from '@/lib/api-client';
+import { matterQueryOptions } from '@/features/matters/api/get-matter';
 import { membersQueryOptions } from './get-members';
 
 /** Gives an existing account a role on the matter at once (no e-mail round trip). */

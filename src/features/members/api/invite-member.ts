@@ -1,9 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type {
-  CreateInvitationReq,
-  CreateInvitationResponse,
-} from '../../../../shared/schemas/invitations';
-import { api } from '../../../lib/api-client';
+import type { CreateInvitationReq, CreateInvitationResponse } from '@shared/schemas/invitations';
+import { api } from '@/lib/api-client';
 import { membersQueryOptions } from './get-members';
 
 /** E-mails a single-use link; the invitation then shows as pending. */

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
+import { api } from '@/lib/api-client';
 import { membersQueryOptions } from './get-members';
 
 export function revokeInvitation(matterId: number, invitationId: number): Promise<void> {

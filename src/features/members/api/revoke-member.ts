@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
-import { matterQueryOptions } from '../../matters/api/get-matter';
+import { api } from '@/lib/api-client';
+import { matterQueryOptions } from '@/features/matters/api/get-matter';
 import { membersQueryOptions } from './get-members';
 
 export function revokeMember(matterId: number, userId: string): Promise<void> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { PrivilegeLogResponse } from '../../../../shared/schemas/privilege-log';
-import { api } from '../../../lib/api-client';
+import type { PrivilegeLogResponse } from '@shared/schemas/privilege-log';
+import { api } from '@/lib/api-client';
 
 export const privilegeLogQueryKey = (matterId: number) =>
   ['matters', 'detail', matterId, 'privilege-log'] as const;

@@ -1,9 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type {
-  PrivilegeLogPatchReq,
-  PrivilegeLogRow,
-} from '../../../../shared/schemas/privilege-log';
-import { api } from '../../../lib/api-client';
+import type { PrivilegeLogPatchReq, PrivilegeLogRow } from '@shared/schemas/privilege-log';
+import { api } from '@/lib/api-client';
 import { privilegeLogQueryKey } from './get-privilege-log';
 
 /** PATCH /api/matters/:matterId/privilege-log/:docId: edit a row in place (audited). */

@@ -1,20 +1,14 @@
 import { useMemo, useState } from 'react';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import {
   PRIVILEGE_LOG_COLUMNS,
   type PrivilegeLogField,
   type PrivilegeLogRow,
-} from '../../../../shared/schemas/privilege-log';
-import { ReviewCaution } from '../../../components/review-caution';
-import {
-  EmptyState,
-  Notice,
-  PageHeader,
-  QueryBoundary,
-  describeError,
-} from '../../../components/ui';
-import { useMatterPermission } from '../../../lib/authorization';
-import { privilegeLogCsvHref } from '../../exports/api/export-links';
+} from '@shared/schemas/privilege-log';
+import { ReviewCaution } from '@/components/review-caution';
+import { EmptyState, Notice, PageHeader, QueryBoundary, describeError } from '@/components/ui';
+import { useMatterPermission } from '@/lib/authorization';
+import { privilegeLogCsvHref } from '@/features/exports/api/export-links';
 import { usePatchPrivilegeLogRow } from '../api/patch-privilege-log-row';
 import { usePrivilegeLog } from '../api/get-privilege-log';
 

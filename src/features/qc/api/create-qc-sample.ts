@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CreateQcSampleReq, QcSampleResponse } from '../../../../shared/schemas/qc';
-import { api } from '../../../lib/api-client';
-import { batchesQueryKey } from '../../batches/api/keys';
+import type { CreateQcSampleReq, QcSampleResponse } from '@shared/schemas/qc';
+import { api } from '@/lib/api-client';
+import { batchesQueryKey } from '@/features/batches/api/keys';
 import { qcQueryKey } from './keys';
 
 /** POST /api/matters/:matterId/qc/samples: draw a QC sample into a QC batch. */

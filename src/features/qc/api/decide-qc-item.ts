@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { QcDecisionReq, QcItem } from '../../../../shared/schemas/qc';
-import { api } from '../../../lib/api-client';
+import type { QcDecisionReq, QcItem } from '@shared/schemas/qc';
+import { api } from '@/lib/api-client';
 import { qcQueryKey } from './keys';
 
 /** POST /api/matters/:matterId/qc/items/:itemId/decision: confirm or overturn a call. */

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { QcSamplesResponse } from '../../../../shared/schemas/qc';
-import { api } from '../../../lib/api-client';
+import type { QcSamplesResponse } from '@shared/schemas/qc';
+import { api } from '@/lib/api-client';
 import { qcQueryKey } from './keys';
 
 /** GET /api/matters/:matterId/qc/samples (the lead). */

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
-import { reviewsQueryKey } from '../../review/api/keys';
+import { api } from '@/lib/api-client';
+import { reviewsQueryKey } from '@/features/review/api/keys';
 
 /** DELETE /api/matters/:matterId/documents/:docId/lock (the lead): recoding allowed again. */
 export function unlockDocument(matterId: number, docId: number) {

@@ -1,7 +1,7 @@
 import { type FormEvent, useState } from 'react';
-import { Link, useSearchParams } from 'react-router';
-import type { QcMethod } from '../../../../shared/schemas/qc';
-import { ReviewCaution } from '../../../components/review-caution';
+import { Link, useSearchParams } from 'react-router-dom';
+import type { QcMethod } from '@shared/schemas/qc';
+import { ReviewCaution } from '@/components/review-caution';
 import {
   Button,
   EmptyState,
@@ -16,11 +16,11 @@ import {
   Tr,
   describeError,
   inputClass,
-} from '../../../components/ui';
-import { useMatterPermission } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
-import { useTeamProgress } from '../../batches/api/get-team-progress';
-import { useCodes } from '../../codes/api/get-codes';
+} from '@/components/ui';
+import { useMatterPermission } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { useTeamProgress } from '@/features/batches/api/get-team-progress';
+import { useCodes } from '@/features/codes/api/get-codes';
 import { useCreateQcSample } from '../api/create-qc-sample';
 import { useDecideQcItem } from '../api/decide-qc-item';
 import { useOverturnRates } from '../api/get-overturn-rates';

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { NoteResponse, ReviewResponse } from '../../../../shared/schemas/review';
-import { api } from '../../../lib/api-client';
+import type { NoteResponse, ReviewResponse } from '@shared/schemas/review';
+import { api } from '@/lib/api-client';
 import { reviewsQueryKey } from './keys';
 
 /** POST /api/matters/:matterId/documents/:docId/notes (documents.code). */

@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ReviewResponse } from '../../../../shared/schemas/review';
-import type { SearchMode } from '../../../../shared/schemas/search';
-import { api } from '../../../lib/api-client';
+import type { ReviewResponse } from '@shared/schemas/review';
+import type { SearchMode } from '@shared/schemas/search';
+import { api } from '@/lib/api-client';
 import { reviewsQueryKey } from './keys';
 
-export type { ReviewResponse } from '../../../../shared/schemas/review';
+export type { ReviewResponse } from '@shared/schemas/review';
 
 export interface ReviewHighlightFor {
   /** The search the reviewer came from; its terms are highlighted. */

@@ -3,8 +3,8 @@ import type {
   PrivilegeEntryReq,
   PrivilegeEntryResponse,
   ReviewResponse,
-} from '../../../../shared/schemas/review';
-import { api } from '../../../lib/api-client';
+} from '@shared/schemas/review';
+import { api } from '@/lib/api-client';
 import { reviewsQueryKey } from './keys';
 
 /** PUT /api/matters/:matterId/documents/:docId/privilege: basis and description for the log. */

@@ -7,12 +7,12 @@ import {
   type CodeGroup,
   type DocumentCodesResponse,
   type PrivilegeFieldsReq,
-} from '../../../../shared/schemas/codes';
-import { Button, Notice, describeError, inputClass } from '../../../components/ui';
-import { cn } from '../../../lib/cn';
-import { formatDateTime } from '../../../lib/format';
-import type { Code } from '../../codes/api/get-codes';
-import type { SetDocumentCodesVars } from '../../codes/api/set-document-codes';
+} from '@shared/schemas/codes';
+import { Button, Notice, describeError, inputClass } from '@/components/ui';
+import { cn } from '@/lib/cn';
+import { formatDateTime } from '@/lib/format';
+import type { Code } from '@/features/codes/api/get-codes';
+import type { SetDocumentCodesVars } from '@/features/codes/api/set-document-codes';
 import { keyOfCode } from '../keyboard';
 import { Kbd } from './key-legend';
 

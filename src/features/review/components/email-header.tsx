@@ -1,5 +1,5 @@
-import type { ReviewDocument } from '../../../../shared/schemas/review';
-import { formatDateTime } from '../../../lib/format';
+import type { ReviewDocument } from '@shared/schemas/review';
+import { formatDateTime } from '@/lib/format';
 
 /** An e-mail's header block as its headers state it (RFC 5322 3.6: From, To, Cc, Date, Subject). */
 export function EmailHeader({ doc, subject }: { doc: ReviewDocument; subject: string }) {

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { Code } from '../../codes/api/get-codes';
+import type { Code } from '@/features/codes/api/get-codes';
 import { NAVIGATION_KEYS } from '../keyboard';
 
 export function Kbd({ children }: { children: string }) {

@@ -1,7 +1,7 @@
 import { type FormEvent, type RefObject, useState } from 'react';
-import { NOTE_MAX_LENGTH, type Note } from '../../../../shared/schemas/review';
-import { Button, Notice, describeError } from '../../../components/ui';
-import { formatDateTime } from '../../../lib/format';
+import { NOTE_MAX_LENGTH, type Note } from '@shared/schemas/review';
+import { Button, Notice, describeError } from '@/components/ui';
+import { formatDateTime } from '@/lib/format';
 import { useCreateNote } from '../api/create-note';
 
 export function NotesPanel({

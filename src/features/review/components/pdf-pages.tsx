@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
-import { Notice, Spinner } from '../../../components/ui';
+import { Notice, Spinner } from '@/components/ui';
 import { plural } from '../format';
 
 /** Pages rendered at most at once; the reader asks for more (large PDFs stay responsive). */

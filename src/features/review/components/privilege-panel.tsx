@@ -3,9 +3,9 @@ import {
   PRIVILEGE_BASIS_MAX_LENGTH,
   PRIVILEGE_DESCRIPTION_MAX_LENGTH,
   type PrivilegeEntry,
-} from '../../../../shared/schemas/review';
-import { Button, Notice, TextField, describeError } from '../../../components/ui';
-import { formatDateTime } from '../../../lib/format';
+} from '@shared/schemas/review';
+import { Button, Notice, TextField, describeError } from '@/components/ui';
+import { formatDateTime } from '@/lib/format';
 import { useSavePrivilege } from '../api/save-privilege';
 
 /** Basis and description for the privilege log; shown once a privilege code is applied. */

@@ -1,26 +1,22 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { Link, useNavigate, useSearchParams } from 'react-router';
-import {
-  chooseCode,
-  missingRequiredGroups,
-  type PrivilegeFieldsReq,
-} from '../../../../shared/schemas/codes';
-import { ReviewCaution } from '../../../components/review-caution';
-import { Badge, ErrorPanel, Notice, PageHeader, SkeletonRows } from '../../../components/ui';
-import { isApiError } from '../../../lib/api-client';
-import { useMatterPermission } from '../../../lib/authorization';
-import { formatDateTime } from '../../../lib/format';
-import { type Code, activeCodes, useCodes } from '../../codes/api/get-codes';
-import { useSetDocumentCodes } from '../../codes/api/set-document-codes';
-import { documentOriginalHref } from '../../documents/api/get-document';
-import { docTypeLabel, formatBytes } from '../../documents/format';
-import { useUnlockDocument } from '../../qc/api/unlock-document';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { chooseCode, missingRequiredGroups, type PrivilegeFieldsReq } from '@shared/schemas/codes';
+import { ReviewCaution } from '@/components/review-caution';
+import { Badge, ErrorPanel, Notice, PageHeader, SkeletonRows } from '@/components/ui';
+import { isApiError } from '@/lib/api-client';
+import { useMatterPermission } from '@/lib/authorization';
+import { formatDateTime } from '@/lib/format';
+import { type Code, activeCodes, useCodes } from '@/features/codes/api/get-codes';
+import { useSetDocumentCodes } from '@/features/codes/api/set-document-codes';
+import { documentOriginalHref } from '@/features/documents/api/get-document';
+import { docTypeLabel, formatBytes } from '@/features/documents/format';
+import { useUnlockDocument } from '@/features/qc/api/unlock-document';
 import {
   type SearchState,
   hasSearch,
   parseSearchState,
   searchHref,
-} from '../../search/search-state';
+} from '@/features/search/search-state';
 import { type ReviewResponse, useReview } from '../api/get-review';
 import { plural } from '../format';
 import { codeKeyMap, isTypingTarget } from '../keyboard';

@@ -1,9 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type {
-  CreateSavedSearchReq,
-  SavedSearchResponse,
-} from '../../../../shared/schemas/saved-searches';
-import { api } from '../../../lib/api-client';
+import type { CreateSavedSearchReq, SavedSearchResponse } from '@shared/schemas/saved-searches';
+import { api } from '@/lib/api-client';
 import { savedSearchesQueryKey } from './get-saved-searches';
 
 /** POST /api/matters/:matterId/saved-searches (searches.save). */

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
+import { api } from '@/lib/api-client';
 import { savedSearchesQueryKey } from './get-saved-searches';
 
 /** DELETE /api/matters/:matterId/saved-searches/:savedSearchId */

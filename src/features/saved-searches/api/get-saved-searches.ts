@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SavedSearchesResponse } from '../../../../shared/schemas/saved-searches';
-import { api } from '../../../lib/api-client';
+import type { SavedSearchesResponse } from '@shared/schemas/saved-searches';
+import { api } from '@/lib/api-client';
 
-export type { SavedSearch } from '../../../../shared/schemas/saved-searches';
+export type { SavedSearch } from '@shared/schemas/saved-searches';
 
 /** GET /api/matters/:matterId/saved-searches, newest first. */
 export function getSavedSearches(

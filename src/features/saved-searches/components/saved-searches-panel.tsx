@@ -1,11 +1,11 @@
 import { type FormEvent, useState } from 'react';
-import { Link } from 'react-router';
-import { SAVED_SEARCH_NAME_MAX_LENGTH } from '../../../../shared/schemas/saved-searches';
-import type { SearchFilters, SearchMode } from '../../../../shared/schemas/search';
-import { Button, Notice, SkeletonRows, TextField, describeError } from '../../../components/ui';
-import { Can, useMatterPermission } from '../../../lib/authorization';
-import { formatDate } from '../../../lib/format';
-import { MODE_LABELS, searchHref } from '../../search/search-state';
+import { Link } from 'react-router-dom';
+import { SAVED_SEARCH_NAME_MAX_LENGTH } from '@shared/schemas/saved-searches';
+import type { SearchFilters, SearchMode } from '@shared/schemas/search';
+import { Button, Notice, SkeletonRows, TextField, describeError } from '@/components/ui';
+import { Can, useMatterPermission } from '@/lib/authorization';
+import { formatDate } from '@/lib/format';
+import { MODE_LABELS, searchHref } from '@/features/search/search-state';
 import { useCreateSavedSearch } from '../api/create-saved-search';
 import { useDeleteSavedSearch } from '../api/delete-saved-search';
 import { useSavedSearches } from '../api/get-saved-searches';

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RecentSearchesResponse } from '../../../../shared/schemas/saved-searches';
-import { api } from '../../../lib/api-client';
+import type { RecentSearchesResponse } from '@shared/schemas/saved-searches';
+import { api } from '@/lib/api-client';
 
-export type { RecentSearch } from '../../../../shared/schemas/saved-searches';
+export type { RecentSearch } from '@shared/schemas/saved-searches';
 
 /** GET /api/matters/:matterId/searches/recent: the caller's last distinct searches. */
 export function getRecentSearches(

@@ -1,9 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { SearchReq, SearchResponse } from '../../../../shared/schemas/search';
-import { api } from '../../../lib/api-client';
+import type { SearchReq, SearchResponse } from '@shared/schemas/search';
+import { api } from '@/lib/api-client';
 import { searchesQueryKey } from './keys';
 
-export type { SearchHit, SearchReq, SearchResponse } from '../../../../shared/schemas/search';
+export type { SearchHit, SearchReq, SearchResponse } from '@shared/schemas/search';
 
 /** POST /api/matters/:matterId/search: a query, or "more like this" (similarTo). Audited. */
 export function runSearch(

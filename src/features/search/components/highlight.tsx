@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
-import type { SnippetSegment } from '../../../../shared/schemas/search';
-import { cn } from '../../../lib/cn';
+import type { SnippetSegment } from '@shared/schemas/search';
+import { cn } from '@/lib/cn';
 
 // Two highlight styles that differ in shape as well as colour (WCAG 2.2, 1.4.1 Use of
 // Color): your own words are bold on a solid tint; concept-related words carry a dotted

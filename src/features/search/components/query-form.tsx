@@ -1,8 +1,8 @@
 import { type FormEvent, type KeyboardEvent, useEffect, useId, useState } from 'react';
-import { SEARCH_MODES, type SearchMode } from '../../../../shared/schemas/search';
-import { QUERY_MAX_LENGTH } from '../../../../shared/limits';
-import { Button } from '../../../components/ui';
-import { cn } from '../../../lib/cn';
+import { SEARCH_MODES, type SearchMode } from '@shared/schemas/search';
+import { QUERY_MAX_LENGTH } from '@shared/limits';
+import { Button } from '@/components/ui';
+import { cn } from '@/lib/cn';
 import { MODE_EXPLANATIONS, MODE_LABELS } from '../search-state';
 
 const isMac = typeof navigator !== 'undefined' && /Mac|iPhone|iPad/.test(navigator.platform);

@@ -1,7 +1,7 @@
-import { Link } from 'react-router';
-import { SEARCH_PAGE_DEFAULT } from '../../../../shared/schemas/search';
-import { Notice, SkeletonRows, describeError } from '../../../components/ui';
-import { formatDateTime } from '../../../lib/format';
+import { Link } from 'react-router-dom';
+import { SEARCH_PAGE_DEFAULT } from '@shared/schemas/search';
+import { Notice, SkeletonRows, describeError } from '@/components/ui';
+import { formatDateTime } from '@/lib/format';
 import { useRecentSearches } from '../api/get-recent-searches';
 import { MODE_LABELS, searchHref } from '../search-state';
 

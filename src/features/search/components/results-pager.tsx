@@ -1,4 +1,4 @@
-import { Button } from '../../../components/ui';
+import { Button } from '@/components/ui';
 import { PAGE_SIZES } from '../search-state';
 
 export function ResultsPager({

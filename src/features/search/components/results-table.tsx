@@ -9,12 +9,12 @@ import {
   tableFeatures,
   useTable,
 } from '@tanstack/react-table';
-import { Link } from 'react-router';
-import type { SearchHit, SearchSort, SortField } from '../../../../shared/schemas/search';
-import { Badge } from '../../../components/ui';
-import { cn } from '../../../lib/cn';
-import { formatDate } from '../../../lib/format';
-import { docTypeLabel } from '../../documents/format';
+import { Link } from 'react-router-dom';
+import type { SearchHit, SearchSort, SortField } from '@shared/schemas/search';
+import { Badge } from '@/components/ui';
+import { cn } from '@/lib/cn';
+import { formatDate } from '@/lib/format';
+import { docTypeLabel } from '@/features/documents/format';
 import { Snippet } from './highlight';
 import { ScoreBar } from './score-bar';
 

@@ -1,10 +1,10 @@
 import type { ReactNode } from 'react';
-import type { SearchFilters } from '../../../../shared/schemas/search';
-import { Button } from '../../../components/ui';
-import { inputClass } from '../../../components/ui/text-field';
-import { cn } from '../../../lib/cn';
-import type { Code } from '../../codes/api/get-codes';
-import { DOC_TYPE_LABELS } from '../../documents/format';
+import type { SearchFilters } from '@shared/schemas/search';
+import { Button } from '@/components/ui';
+import { inputClass } from '@/components/ui/text-field';
+import { cn } from '@/lib/cn';
+import type { Code } from '@/features/codes/api/get-codes';
+import { DOC_TYPE_LABELS } from '@/features/documents/format';
 
 interface Option {
   id: string;
