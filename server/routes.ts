@@ -18,6 +18,8 @@ import { qcRoutes } from './qc/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
+import { holdRoutes } from './holds/router';
+import { trashRoutes } from './trash/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -43,4 +45,6 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...conceptRoutes,
   ...batchRoutes,
   ...qcRoutes,
+  ...holdRoutes,
+  ...trashRoutes,
 ];

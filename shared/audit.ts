@@ -48,6 +48,11 @@ export const AUDIT_ACTIONS = [
   'qc.sample_drawn',
   'qc.decided',
   'coding.unlocked',
+  'document.trashed',
+  'document.restored',
+  'document.purged',
+  'hold.set',
+  'hold.released',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -98,4 +103,9 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'qc.sample_drawn': 'Drew a quality-control sample',
   'qc.decided': 'Confirmed or overturned a call',
   'coding.unlocked': 'Unlocked coding after quality control',
+  'document.trashed': 'Moved a coded document to the trash',
+  'document.restored': 'Restored a document from the trash',
+  'document.purged': 'Destroyed a document from the trash',
+  'hold.set': 'Set a legal hold',
+  'hold.released': 'Released a legal hold',
 };

@@ -33,6 +33,9 @@ export const MATTER_PERMISSIONS = [
   'batches.manage',
   'qc.manage',
   'privilege_log.edit',
+  'holds.manage',
+  'documents.restore',
+  'documents.purge',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -63,6 +66,11 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'qc.manage': ['lead'],
   // The in-app privilege log: read and edit descriptions.
   'privilege_log.edit': ['lead', 'attorney'],
+  // Legal holds and the trash: only the matter lead sets or releases a hold, restores a
+  // deleted document or destroys it for good.
+  'holds.manage': ['lead'],
+  'documents.restore': ['lead'],
+  'documents.purge': ['lead'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

@@ -20,6 +20,15 @@ const commands: Record<string, Command> = {
     summary: 'import --matter "<name>" [--custodian "<name>"] <folder>   bulk load a folder tree',
     load: () => import('./commands/import'),
   },
+  backup: {
+    summary:
+      'backup --out <dir>   consistent copy of the database and blobs, with a SHA-256 manifest',
+    load: () => import('./commands/backup'),
+  },
+  restore: {
+    summary: 'restore <dir> [--force]   verify a backup and restore it into the data folder',
+    load: () => import('./commands/restore'),
+  },
 };
 
 function usage(): string {

@@ -21,6 +21,9 @@ export function openDatabase(file: string): OpenedDatabase {
   sqlite.pragma('foreign_keys = ON');
   sqlite.pragma('busy_timeout = 5000');
   sqlite.pragma('synchronous = NORMAL');
+  // Deleted content is overwritten with zeros (SQLite "PRAGMA secure_delete"), so a purged
+  // document's text does not linger in free space of the file (server/trash).
+  sqlite.pragma('secure_delete = ON');
   // Search reads FTS5 doclists, its docsize table and documents rows all over a large
   // matter: a larger page cache (128 MiB; better-sqlite3 opens with 16 MB) and
   // memory-mapped reads (SQLite "Memory-Mapped I/O") took keyword searches of a

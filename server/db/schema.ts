@@ -370,6 +370,44 @@ export interface CodingLocksTable {
   locked_at: string;
 }
 
+/** A legal hold on a matter (custodian_id null) or one custodian (migration 2026_12_04_1180). */
+export interface LegalHoldsTable {
+  id: Generated<number>;
+  matter_id: number;
+  custodian_id: number | null;
+  reason: string;
+  set_by: string | null;
+  set_at: string;
+  released_by: string | null;
+  released_at: string | null;
+  release_reason: string | null;
+}
+
+/** A deleted coded document awaiting restore or purge (server/trash). */
+export interface DocumentTrashTable {
+  id: Generated<number>;
+  matter_id: number;
+  document_id: number;
+  control_number: string;
+  title: Generated<string>;
+  original_name: string;
+  document_count: number;
+  /** JSON number[]: custodians of the document and its attachments (holds apply to them). */
+  custodian_ids: Generated<string>;
+  /** JSON [{ documentId, controlNumber, code }]: the codes it carried. */
+  codes: Generated<string>;
+  reason: string;
+  trashed_by: string | null;
+  trashed_at: string;
+  /** JSON snapshot of every row that referenced the document (server/trash/snapshot.ts). */
+  snapshot: string;
+}
+
+export interface DocumentTrashBlobsTable {
+  trash_id: number;
+  sha256: string;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -405,6 +443,9 @@ export interface Database {
   notes: NotesTable;
   saved_searches: SavedSearchesTable;
   audit_events: AuditEventsTable;
+  legal_holds: LegalHoldsTable;
+  document_trash: DocumentTrashTable;
+  document_trash_blobs: DocumentTrashBlobsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

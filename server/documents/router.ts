@@ -7,6 +7,7 @@ import {
   uploadFieldsSchema,
   type UploadBatchResponse,
 } from '../../shared/schemas/documents';
+import { deleteDocumentSchema } from '../../shared/schemas/trash';
 import { defineRoute } from '../http/route';
 import { loadFiles } from './ingest';
 import {
@@ -98,12 +99,18 @@ export const documentRoutes = [
     method: 'delete',
     path: '/matters/:matterId/documents/:docId',
     access: { matter: 'documents.organise' },
-    schemas: { params: documentParams },
-    summary: 'Remove a document (failed: paralegals and leads; any other: leads)',
-    handler: async ({ ctx, matter, params, user, ip }) => {
-      await deleteDocument(ctx, matter.matterId, params.docId, matter.role, actorOf(user, ip));
-      return undefined;
-    },
+    schemas: { params: documentParams, body: deleteDocumentSchema },
+    summary:
+      'Remove a document (failed: paralegals and leads; any other: leads; refused under a legal hold; a coded one needs a reason and goes to the trash)',
+    handler: ({ ctx, matter, params, body, user, ip }) =>
+      deleteDocument(
+        ctx,
+        matter.matterId,
+        params.docId,
+        matter.role,
+        actorOf(user, ip),
+        body?.reason,
+      ),
   }),
   defineRoute({
     method: 'get',

@@ -13,12 +13,13 @@ import type {
   IndexState,
   RetryDocumentResponse,
 } from '../../shared/schemas/documents';
+import type { DeleteDocumentResponse } from '../../shared/schemas/trash';
 import { recordAudit } from '../audit/record';
 import type { AppContext } from '../context';
 import type { DocumentRow } from '../db/schema';
 import { conflict, notFound } from '../http/errors';
 import { currentIndexIdOf } from '../indexing/queries';
-import { assertCanDeleteDocument } from '../policy/policy';
+import { removeDocument } from '../trash/service';
 import type { Actor } from './ingest';
 import {
   countDocumentsFiltered,
@@ -228,66 +229,18 @@ export async function retryDocument(
 }
 
 /**
- * Deletes a document (with its attachments, text and index vectors). When it had recorded
- * duplicates, the first duplicate takes its place and is extracted, so the content stays.
+ * Deletes a document with its attachments (server/trash: legal holds refuse it, a coded
+ * document needs a reason and goes to the trash, any other is deleted completely).
  */
-export async function deleteDocument(
+export function deleteDocument(
   ctx: AppContext,
   matterId: number,
   docId: number,
   role: MatterRole,
   actor: Actor,
-): Promise<void> {
-  const row = await findDocument(ctx.db, matterId, docId);
-  if (!row) throw notFound('Document');
-  assertCanDeleteDocument(role, row.extract_status);
-  let promoted: number | null = null;
-  await ctx.db.transaction().execute(async (trx) => {
-    const duplicates = await listDocumentRefs(trx, { duplicateOf: docId });
-    await trx.deleteFrom('documents').where('id', '=', docId).execute();
-    if (duplicates.length > 0 && row.extract_status !== 'failed') {
-      const [heir, ...rest] = [...duplicates].sort((a, b) => a.id - b.id);
-      promoted = heir.id;
-      await trx
-        .updateTable('documents')
-        .set({ extract_status: 'pending', duplicate_of: null })
-        .where('id', '=', heir.id)
-        .execute();
-      if (rest.length > 0)
-        await trx
-          .updateTable('documents')
-          .set({ duplicate_of: heir.id })
-          .where(
-            'id',
-            'in',
-            rest.map((r) => r.id),
-          )
-          .execute();
-      await ctx.jobs.enqueue(trx, {
-        matterId,
-        kind: 'extract-batch',
-        payload: { documentIds: [heir.id] },
-        total: 1,
-        createdBy: actor.id,
-      });
-    }
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      matterId,
-      action: 'document.deleted',
-      targetType: 'document',
-      targetId: docId,
-      detail: {
-        controlNumber: row.control_number,
-        name: row.original_name,
-        status: row.extract_status,
-        sha256: row.sha256,
-        promotedDuplicate: promoted,
-      },
-    });
-  });
-  ctx.index.invalidate(matterId);
-  if (promoted !== null) ctx.jobs.wake('extract-batch');
+  reason?: string,
+): Promise<DeleteDocumentResponse> {
+  return removeDocument(ctx, matterId, docId, role, actor, reason);
 }
 
 export async function readCustodians(

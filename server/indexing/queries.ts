@@ -116,6 +116,8 @@ export async function pruneSuperseded(db: Executor, matterId: number): Promise<v
     .where('status', '=', 'superseded');
   await db.deleteFrom('index_terms').where('index_id', 'in', old).execute();
   await db.deleteFrom('index_docs').where('index_id', 'in', old).execute();
+  // The BLOBs hold the same vectors (and the vocabulary): a purged document must not live on there.
+  await db.deleteFrom('index_blobs').where('index_id', 'in', old).execute();
 }
 
 /** Builds a crash left 'building' are failed: their worker is gone. */

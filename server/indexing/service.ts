@@ -57,7 +57,7 @@ export interface BuildIndexPayload {
   k?: number;
   weighting?: IndexWeighting;
   /** Who asked ('fold-in share' / 'first build' when the server queued it). */
-  reason: 'requested' | 'fold-in share' | 'first build';
+  reason: 'requested' | 'fold-in share' | 'first build' | 'document purged';
   requestedBy?: string | null;
   requestedByEmail?: string | null;
 }

@@ -65,6 +65,14 @@ export class KeywordIndexCache {
     );
   }
 
+  /**
+   * Drops a matter's index so the next search builds it afresh from the database: after a
+   * purge, not even the removed document's stale postings stay in memory.
+   */
+  forget(matterId: number): void {
+    this.entries.delete(matterId);
+  }
+
   async close(): Promise<void> {
     this.closed = true;
     await Promise.allSettled(this.building.values());

@@ -121,3 +121,17 @@ describe('temporary folders', () => {
     expect(await readdir(tempRoot(dataDir))).toEqual([path.basename(fresh)]);
   });
 });
+
+describe('BlobStore.delete', () => {
+  it('removes the blob and its emptied folders, leaves neighbours, and reports a missing one', async () => {
+    const store = new BlobStore(dataDir);
+    const a = await store.putBuffer(Buffer.from('abc'));
+    const b = await store.putBuffer(Buffer.from('other content'));
+    expect(await store.delete(a.sha256)).toBe(true);
+    expect(await store.has(a.sha256)).toBe(false);
+    await expect(stat(path.dirname(a.path))).rejects.toThrow();
+    expect(await store.has(b.sha256)).toBe(true);
+    expect(await store.delete(a.sha256)).toBe(false);
+    await expect(store.delete('../x')).rejects.toThrow(/not a SHA-256/);
+  });
+});

@@ -4,7 +4,7 @@
 // a half-written blob and an existing blob is never overwritten.
 import { createHash, randomUUID } from 'node:crypto';
 import { createReadStream, createWriteStream, type ReadStream } from 'node:fs';
-import { link, mkdir, open, rename, rm, stat, unlink } from 'node:fs/promises';
+import { link, mkdir, open, rename, rm, rmdir, stat, unlink } from 'node:fs/promises';
 import path from 'node:path';
 import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
@@ -103,6 +103,24 @@ export class BlobStore {
     } finally {
       await unlink(temp).catch(() => undefined);
     }
+  }
+
+  /**
+   * Removes a blob for good (a purged document's original). The caller decides that no
+   * document still needs it: the store does not know who refers to what. Empty ab/cd
+   * folders are removed too. Returns whether a file was there.
+   */
+  async delete(sha256: string): Promise<boolean> {
+    const file = this.pathOf(sha256);
+    try {
+      await unlink(file);
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code === 'ENOENT') return false;
+      throw error;
+    }
+    for (const dir of [path.dirname(file), path.dirname(path.dirname(file))])
+      await rmdir(dir).catch(() => undefined); // not empty: another blob lives there
+    return true;
   }
 
   /** Removes leftovers of interrupted writes (call at start-up). */

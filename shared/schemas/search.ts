@@ -49,9 +49,7 @@ export const searchFiltersSchema = z
     dateFrom: isoDate.optional(),
     dateTo: isoDate.optional(),
     /** Which date dateFrom/dateTo test: the document's own (default) or its family's (the parent's). */
-    dateBasis: z
-      .enum(['document', 'family'], { error: 'must be document or family' })
-      .optional(),
+    dateBasis: z.enum(['document', 'family'], { error: 'must be document or family' }).optional(),
     /** pdf, docx, email, html, text, markdown, ... (documents.docType). */
     docTypes: z
       .array(z.string().min(1).max(40), { error: 'must be a list of document types' })

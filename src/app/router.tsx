@@ -26,6 +26,7 @@ import * as matterBatches from './routes/matter/batches';
 import * as matterQc from './routes/matter/qc';
 import * as matterPrivilegeLog from './routes/matter/privilege-log';
 import * as matterSearch from './routes/matter/search';
+import * as matterTrash from './routes/matter/trash';
 import * as matterUpload from './routes/matter/upload';
 import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
@@ -151,6 +152,11 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: 'batches', Component: matterBatches.BatchesRoute },
             { path: 'qc', Component: matterQc.QcRoute },
             { path: 'privilege-log', Component: matterPrivilegeLog.PrivilegeLogRoute },
+            {
+              path: 'trash',
+              loader: matterTrash.clientLoader(queryClient),
+              Component: matterTrash.TrashRoute,
+            },
           ],
         },
         { path: 'account', Component: account.AccountRoute },

@@ -22,4 +22,7 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'batches.manage': 'Cut and assign review batches',
   'qc.manage': 'Draw quality-control samples and unlock checked coding',
   'privilege_log.edit': 'Read and edit the privilege log',
+  'holds.manage': 'Set and release legal holds',
+  'documents.restore': 'Restore deleted documents from the trash',
+  'documents.purge': 'Destroy deleted documents for good',
 };

@@ -96,6 +96,13 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     permission: 'privilege_log.edit',
     summary: 'Withheld and redacted documents with their families; edit descriptions, export CSV.',
   },
+  {
+    id: 'trash',
+    label: 'Trash',
+    path: 'trash',
+    permission: 'documents.delete',
+    summary: 'Deleted coded documents: restore them, or purge them for good.',
+  },
 ];
 
 export function matterSectionHref(matterId: number, section: MatterSection): string {

@@ -1,7 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link, type LoaderFunctionArgs, useParams } from 'react-router-dom';
-import { ErrorPanel, Notice, PageHeader, SkeletonRows } from '@/components/ui';
+import { useState } from 'react';
+import { Link, type LoaderFunctionArgs, useNavigate, useParams } from 'react-router-dom';
+import { Button, ErrorPanel, Notice, PageHeader, SkeletonRows } from '@/components/ui';
 import { documentQueryOptions, useDocument } from '@/features/documents/api/get-document';
+import { DeleteDocumentDialog } from '@/features/documents/components/delete-document-dialog';
 import { DocumentView } from '@/features/documents/components/document-view';
 import { isApiError } from '@/lib/api-client';
 import { useMatterPermission } from '@/lib/authorization';
@@ -46,6 +48,9 @@ function DocumentMissing({ matterId }: { matterId: number }) {
 
 function DocumentPage({ matterId, docId }: { matterId: number; docId: number }) {
   const document = useDocument(matterId, docId);
+  const canDelete = useMatterPermission('documents.delete');
+  const [deleting, setDeleting] = useState(false);
+  const navigate = useNavigate();
   const back = (
     <Link
       to={`/matters/${matterId}/documents`}
@@ -77,8 +82,25 @@ function DocumentPage({ matterId, docId }: { matterId: number; docId: number }) 
           </span>
         }
         title={detail.title || detail.name}
+        actions={
+          canDelete ? (
+            <Button
+              variant="danger"
+              onClick={() => setDeleting(true)}
+              data-testid="delete-document"
+            >
+              Delete…
+            </Button>
+          ) : undefined
+        }
       />
       <DocumentView matterId={matterId} data={document.data} />
+      <DeleteDocumentDialog
+        matterId={matterId}
+        document={deleting ? detail : null}
+        onClose={() => setDeleting(false)}
+        onDeleted={() => void navigate(`/matters/${matterId}/documents`)}
+      />
     </div>
   );
 }

@@ -24,6 +24,8 @@ import {
 } from '@/features/documents/api/get-documents';
 import { DocumentTable } from '@/features/documents/components/document-table';
 import { STATUS_LABELS } from '@/features/documents/format';
+import { holdsQueryOptions, useHolds } from '@/features/holds/api/get-holds';
+import { HoldsPanel } from '@/features/holds/components/holds-panel';
 import { indexStateQueryOptions } from '@/features/indexing/api/get-index-state';
 import { IndexStatusPanel } from '@/features/indexing/components/index-status-panel';
 import { Can, useMatterPermission } from '@/lib/authorization';
@@ -59,6 +61,7 @@ export const clientLoader =
     void queryClient.prefetchQuery(documentsQueryOptions(matterId, filters));
     void queryClient.prefetchQuery(custodiansQueryOptions(matterId));
     void queryClient.prefetchQuery(indexStateQueryOptions(matterId));
+    void queryClient.prefetchQuery(holdsQueryOptions(matterId));
     return null;
   };
 
@@ -86,6 +89,10 @@ function DocumentsPage({ matterId }: { matterId: number }) {
   const filters = filtersFrom(params);
   const documents = useDocuments(matterId, filters);
   const custodians = useCustodians(matterId);
+  const holds = useHolds(matterId);
+  const activeHolds = holds.data?.holds.filter((h) => h.active) ?? [];
+  const matterHold = activeHolds.find((h) => h.custodian === null);
+  const heldCustodians = new Set(activeHolds.flatMap((h) => (h.custodian ? [h.custodian.id] : [])));
 
   function update(changes: Record<string, string | number | undefined>) {
     const next = new URLSearchParams(params);
@@ -122,6 +129,14 @@ function DocumentsPage({ matterId }: { matterId: number }) {
           </Can>
         }
       />
+      {matterHold ? (
+        <div className="mb-3" data-testid="matter-hold-banner">
+          <Notice tone="warn" title="This matter is under a legal hold">
+            No document of this matter can be deleted until the hold is released. Reason:{' '}
+            {matterHold.reason}
+          </Notice>
+        </div>
+      ) : null}
       <div className="grid gap-5 2xl:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="min-w-0">
           <div
@@ -201,6 +216,7 @@ function DocumentsPage({ matterId }: { matterId: number }) {
               rows={documents.data.documents}
               total={documents.data.total}
               caption="Documents of this matter"
+              heldCustodians={heldCustodians}
               pagination={{ pageIndex: filters.page - 1, pageSize: filters.pageSize }}
               onPaginationChange={(next) =>
                 update({
@@ -211,8 +227,9 @@ function DocumentsPage({ matterId }: { matterId: number }) {
             />
           )}
         </div>
-        <div className="max-w-2xl 2xl:max-w-none 2xl:self-start">
+        <div className="max-w-2xl space-y-5 2xl:max-w-none 2xl:self-start">
           <IndexStatusPanel matterId={matterId} />
+          <HoldsPanel matterId={matterId} />
         </div>
       </div>
     </div>

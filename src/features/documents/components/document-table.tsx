@@ -16,11 +16,11 @@ import {
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import type { DocumentListItem } from '@shared/schemas/documents';
-import { Button, Dialog, Notice, describeError } from '@/components/ui';
+import { Badge, Button, Notice, describeError } from '@/components/ui';
 import { useMatterPermission } from '@/lib/authorization';
 import { cn } from '@/lib/cn';
 import { formatDate } from '@/lib/format';
-import { useDeleteDocument } from '../api/delete-document';
+import { DeleteDocumentDialog } from './delete-document-dialog';
 import { useRetryDocument } from '../api/retry-document';
 import { docTypeLabel, formatBytes } from '../format';
 import { DocumentStatusCell, IndexStateBadge } from './document-status';
@@ -90,8 +90,11 @@ export function DocumentTable({
   pagination,
   onPaginationChange,
   caption,
+  heldCustodians,
 }: {
   matterId: number;
+  /** Custodians under a legal hold (their documents cannot be deleted). */
+  heldCustodians?: ReadonlySet<number>;
   rows: DocumentListItem[];
   total: number;
   pagination: PaginationState;
@@ -103,7 +106,6 @@ export function DocumentTable({
   const [sorting, setSorting] = useState<SortingState>([]);
   const [removing, setRemoving] = useState<DocumentListItem | null>(null);
   const retry = useRetryDocument(matterId);
-  const remove = useDeleteDocument(matterId);
 
   const showActions = canOrganise && rows.some((row) => row.status === 'failed');
   const table = useTable({
@@ -211,6 +213,13 @@ export function DocumentTable({
                   </td>
                   <td className="truncate px-2.5 py-1 text-ink-muted" title={doc.custodian?.name}>
                     {doc.custodian?.name ?? '—'}
+                    {doc.custodian && heldCustodians?.has(doc.custodian.id) ? (
+                      <span data-testid="custodian-hold-badge" title="Under legal hold">
+                        <Badge tone="warn" className="ml-1.5">
+                          Legal hold
+                        </Badge>
+                      </span>
+                    ) : null}
                   </td>
                   <td className="px-2.5 py-1 whitespace-nowrap">{docTypeLabel(doc.docType)}</td>
                   <td className="px-2.5 py-1 whitespace-nowrap tabular-nums">
@@ -282,42 +291,11 @@ export function DocumentTable({
         onPageSize={(size) => onPaginationChange({ pageIndex: 0, pageSize: size })}
         sorted={sorting.length > 0}
       />
-      <Dialog
-        open={removing != null}
-        onClose={() => {
-          setRemoving(null);
-          remove.reset();
-        }}
-        title={removing ? `Remove ${removing.controlNumber}?` : 'Remove document'}
-        description="The file leaves this matter's document list and index. The activity log keeps a record of the removal."
-      >
-        {removing ? (
-          <div className="space-y-3">
-            <p className="text-sm">
-              <span className="font-medium">{removing.name}</span>
-              {removing.error ? (
-                <span className="text-ink-muted"> — failed: {removing.error}</span>
-              ) : null}
-            </p>
-            {remove.isError ? (
-              <Notice tone="danger" title="The document was not removed">
-                {describeError(remove.error)}
-              </Notice>
-            ) : null}
-            <div className="flex justify-end gap-2">
-              <Button onClick={() => setRemoving(null)}>Keep it</Button>
-              <Button
-                variant="danger"
-                busy={remove.isPending}
-                data-testid="confirm-remove"
-                onClick={() => remove.mutate(removing.id, { onSuccess: () => setRemoving(null) })}
-              >
-                Remove document
-              </Button>
-            </div>
-          </div>
-        ) : null}
-      </Dialog>
+      <DeleteDocumentDialog
+        matterId={matterId}
+        document={removing}
+        onClose={() => setRemoving(null)}
+      />
     </div>
   );
 }
