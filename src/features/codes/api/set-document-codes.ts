@@ -71,7 +71,7 @@ export function setDocumentCodesMutationOptions(queryClient: QueryClient, matter
     onSettled: async (answer, _error, vars) => {
       await queryClient.invalidateQueries({ queryKey: codesQueryKey(matterId) });
       // Family and duplicate propagation, the privilege entry and batch progress change too.
-      if (answer?.propagated.length || vars.privilege)
+      if (answer?.propagated?.length || vars.privilege)
         await queryClient.invalidateQueries({ queryKey: reviewsQueryKey(matterId) });
       await queryClient.invalidateQueries({ queryKey: batchesQueryKey(matterId) });
     },
