@@ -8,10 +8,13 @@ import * as searchFilterIndex from './2026_12_02_0600_search_filter_index';
 import * as keywordChanges from './2026_12_02_0700_keyword_changes';
 import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
+import * as authHardening from './2026_12_04_1100_auth_hardening';
 import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
 import * as reviewBatches from './2026_12_04_1400_review_batches';
 import * as codeGroups from './2026_12_04_1401_code_groups';
 import * as qualityControl from './2026_12_04_1402_quality_control';
+import * as exactWordsIndex from './2026_12_04_1200_exact_words_index';
+import * as productions from './2026_12_04_1500_productions';
 
 // Every migration, in order. A static list (rather than a folder scan) works the
 // same under tsx, Vitest and worker threads. Add new files at the end.
@@ -25,8 +28,11 @@ export const migrations: Record<string, Migration> = {
   '2026_12_02_0700_keyword_changes': keywordChanges,
   '2026_12_04_0100_document_families': documentFamilies,
   '2026_12_04_0200_document_metadata': documentMetadata,
+  '2026_12_04_1100_auth_hardening': authHardening,
   '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
+  '2026_12_04_1200_exact_words_index': exactWordsIndex,
   '2026_12_04_1400_review_batches': reviewBatches,
   '2026_12_04_1401_code_groups': codeGroups,
   '2026_12_04_1402_quality_control': qualityControl,
+  '2026_12_04_1500_productions': productions,
 };

@@ -14,9 +14,9 @@ export interface Config {
   /** nodemailer SMTP URL; when unset the app runs a local fake SMTP server (see server/mail). */
   smtpUrl: string | null;
   mailFrom: string;
-  /** Demo mode (default on): seeds demo accounts and shows the dev mail page. */
+  /** Demo mode (default on): seeds demo accounts; firm admins may read the dev mail page. */
   demoMode: boolean;
-  /** Development mode (`npm run dev`): also shows the dev mail page. */
+  /** Development mode (`npm run dev`): the dev mail page is open to anyone. */
   devMode: boolean;
   /** Origin users reach the app on (e.g. https://quarry.example.com); used for links and the CSRF check. */
   publicOrigin: string | null;
@@ -24,7 +24,11 @@ export interface Config {
   trustProxy: boolean | number | string;
   /** Idle session lifetime; lucia extends a session used in the second half of its life. */
   sessionTtlHours: number;
+  /** Absolute session lifetime: no extension passes created + this (ASVS 4.0.3 V3.3.2). */
+  sessionMaxHours: number;
   invitationTtlDays: number;
+  /** How long a temporary password set by a firm admin works (it must be changed at first sign-in). */
+  temporaryPasswordHours: number;
   upload: {
     maxFileBytes: number;
     maxFilesPerRequest: number;
@@ -77,7 +81,17 @@ const envSchema = z.object({
     .positive()
     .max(24 * 90)
     .default(12),
+  QUARRY_SESSION_MAX_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 365)
+    .default(24 * 7),
   QUARRY_INVITATION_TTL_DAYS: z.coerce.number().positive().max(90).default(7),
+  QUARRY_TEMPORARY_PASSWORD_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 30)
+    .default(72),
   QUARRY_MAX_FILE_BYTES: int(1).default(UPLOAD_DEFAULTS.maxFileBytes),
   QUARRY_MAX_FILES_PER_REQUEST: int(1).default(UPLOAD_DEFAULTS.maxFilesPerRequest),
   QUARRY_MAX_REQUEST_BYTES: int(1).default(UPLOAD_DEFAULTS.maxRequestBytes),
@@ -128,7 +142,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     publicOrigin: e.QUARRY_PUBLIC_ORIGIN ?? null,
     trustProxy: e.QUARRY_TRUST_PROXY,
     sessionTtlHours: e.QUARRY_SESSION_TTL_HOURS,
+    sessionMaxHours: e.QUARRY_SESSION_MAX_HOURS,
     invitationTtlDays: e.QUARRY_INVITATION_TTL_DAYS,
+    temporaryPasswordHours: e.QUARRY_TEMPORARY_PASSWORD_HOURS,
     upload: {
       maxFileBytes: e.QUARRY_MAX_FILE_BYTES,
       maxFilesPerRequest: e.QUARRY_MAX_FILES_PER_REQUEST,
@@ -145,4 +161,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
 /** Whether the dev-only pages (the fake mailbox) are served. */
 export function devPagesEnabled(config: Config): boolean {
   return config.demoMode || config.devMode;
+}
+
+/**
+ * Who may read the fake mailbox: anyone on the developer's own `npm run dev` server,
+ * only firm admins in demo mode (its links are credentials), nobody otherwise.
+ */
+export function devMailboxAccess(config: Config): 'anyone' | 'firm-admins' | 'off' {
+  if (config.devMode) return 'anyone';
+  return config.demoMode ? 'firm-admins' : 'off';
 }

@@ -1,4 +1,3 @@
-import { mkdirSync } from 'node:fs';
 import type SQLite from 'better-sqlite3';
 import pino, { type Logger } from 'pino';
 import { createAuth, type Auth } from './auth/session';
@@ -9,9 +8,12 @@ import { ExtractionPool } from './extraction/extract';
 import { IndexService } from './indexing/service';
 import { buildIndexHandler } from './jobs/build-index';
 import { extractBatchHandler } from './jobs/extract-batch';
+import { buildProductionHandler } from './productions/build';
 import { JobRunner } from './jobs/runner';
 import { KeywordIndexCache } from './search/keyword-cache';
+import { conceptGroupingHandler } from './concepts/grouping-job';
 import { BlobStore } from './storage/blob-store';
+import { ensurePrivateDir } from './storage/file-modes';
 import { sweepStaleTempDirs } from './storage/temp-dirs';
 
 /**
@@ -43,8 +45,8 @@ export interface AppContext {
 
 /** Opens and migrates the database and starts the services. */
 export async function createContext(config: Config): Promise<AppContext> {
-  for (const dir of [config.dataDir, config.blobDir, config.tmpDir])
-    mkdirSync(dir, { recursive: true });
+  // Owner-only (0700): the data folder holds the matters' documents.
+  for (const dir of [config.dataDir, config.blobDir, config.tmpDir]) ensurePrivateDir(dir);
   const logger = pino({ level: config.logLevel, base: undefined });
   const { db, sqlite } = openDatabase(config.dbFile);
   const closers: (() => Promise<void> | void)[] = [() => db.destroy()];
@@ -89,8 +91,11 @@ export async function createContext(config: Config): Promise<AppContext> {
     };
     jobs.register('extract-batch', extractBatchHandler(ctx));
     jobs.register('build-index', buildIndexHandler(ctx));
+    jobs.register('build-production', buildProductionHandler(ctx));
+    jobs.register('concept-grouping', conceptGroupingHandler(config.dbFile));
     await index.recoverInterrupted();
     await jobs.start();
+    index.startRecovery();
     keyword.warmAll();
     return ctx;
   } catch (error) {

@@ -62,7 +62,9 @@ async function main(): Promise<void> {
     );
     console.log('or run with QUARRY_DEMO=0 before putting real documents in Quarry.');
     if (ctx.mail.fake)
-      console.log(`Mail is not delivered (SMTP_URL unset): read it on ${url}/dev/mail`);
+      console.log(
+        `Mail is not delivered (SMTP_URL unset): read it on ${url}/dev/mail${config.devMode ? '' : ' (signed in as a firm admin)'}`,
+      );
   }
 
   let stopping = false;

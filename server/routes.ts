@@ -15,11 +15,14 @@ import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
 import { qcRoutes } from './qc/router';
+import { productionRoutes } from './productions/router';
+import { redactionRoutes } from './redactions/router';
 import { reviewRoutes } from './review/router';
 import { savedSearchRoutes } from './saved-searches/router';
 import { searchRoutes } from './search/router';
 import { holdRoutes } from './holds/router';
 import { trashRoutes } from './trash/router';
+import { searchTermReportRoutes } from './search-term-report/router';
 
 /**
  * Every API route, relative to /api. A feature adds its `xRoutes` array here (one line);
@@ -47,4 +50,7 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...qcRoutes,
   ...holdRoutes,
   ...trashRoutes,
+  ...redactionRoutes,
+  ...productionRoutes,
+  ...searchTermReportRoutes,
 ];

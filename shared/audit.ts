@@ -53,6 +53,16 @@ export const AUDIT_ACTIONS = [
   'document.purged',
   'hold.set',
   'hold.released',
+  'redaction.added',
+  'redaction.removed',
+  'production.created',
+  'production.family_resolved',
+  'production.build_requested',
+  'production.built',
+  'production.build_failed',
+  'production.downloaded',
+  'search.term_report',
+  'export.search_term_report',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -108,4 +118,14 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'document.purged': 'Destroyed a document from the trash',
   'hold.set': 'Set a legal hold',
   'hold.released': 'Released a legal hold',
+  'redaction.added': 'Marked a redaction',
+  'redaction.removed': 'Removed a redaction',
+  'production.created': 'Defined a production',
+  'production.family_resolved': 'Resolved a production family check',
+  'production.build_requested': 'Started building a production',
+  'production.built': 'Built a production',
+  'production.build_failed': 'A production build failed',
+  'production.downloaded': 'Downloaded a production',
+  'search.term_report': 'Ran a search term report',
+  'export.search_term_report': 'Exported a search term report',
 };

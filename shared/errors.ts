@@ -18,6 +18,7 @@ export const ERROR_CODES = [
   'csrf_rejected',
   'unsupported_media_type',
   'internal_error',
+  'password_change_required',
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
 
@@ -46,4 +47,5 @@ export const STATUS_OF: Record<ErrorCode, number> = {
   unsupported_media_type: 415,
   rate_limited: 429,
   internal_error: 500,
+  password_change_required: 403,
 };

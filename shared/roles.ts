@@ -36,6 +36,8 @@ export const MATTER_PERMISSIONS = [
   'holds.manage',
   'documents.restore',
   'documents.purge',
+  'documents.redact',
+  'productions.manage',
 ] as const;
 export type MatterPermission = (typeof MATTER_PERMISSIONS)[number];
 
@@ -71,6 +73,9 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'holds.manage': ['lead'],
   'documents.restore': ['lead'],
   'documents.purge': ['lead'],
+  // Redactions are marked in review; they only take effect when a production burns them in.
+  'documents.redact': everyone,
+  'productions.manage': ['lead', 'attorney'],
 };
 
 /** Firm-level permissions come from the account's admin flag, not from a matter role. */

@@ -7,7 +7,7 @@ import type {
   MeResponse,
 } from '../../shared/schemas/auth';
 import { recordAudit } from '../audit/record';
-import { hashPassword } from '../auth/password';
+import { assertNewPassword, hashPassword } from '../auth/password';
 import { readMe } from '../auth/service';
 import type { AppContext } from '../context';
 import { HttpError, notFound } from '../http/errors';
@@ -100,6 +100,7 @@ export async function completeAccountSetup(
   ip: string | null,
 ): Promise<MeResponse> {
   const row = assertUsable(await findSetupToken(ctx.db, hashInvitationToken(token)), new Date());
+  await assertNewPassword('password', input.password, { email: row.email, name: row.name });
   const passwordHash = await hashPassword(input.password);
   await ctx.db.transaction().execute(async (trx) => {
     if (!(await markSetupTokenUsed(trx, row.id, new Date().toISOString()))) {

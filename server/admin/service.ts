@@ -12,6 +12,7 @@ import { recordAudit } from '../audit/record';
 import type { Db } from '../db/database';
 import { findUserById, listUsersWithMatterCounts } from '../users/queries';
 import { createAccount } from '../users/service';
+import { assertNewPassword } from '../auth/password';
 
 type UserListRow = Awaited<ReturnType<typeof listUsersWithMatterCounts>>[number];
 
@@ -41,6 +42,16 @@ export async function createUserByAdmin(
   actor: { id: string; email: string; name: string; ip: string | null },
   origin: string,
 ): Promise<CreateUserResponse> {
+  if (input.temporaryPassword)
+    await assertNewPassword('temporaryPassword', input.temporaryPassword, {
+      email: input.email,
+      name: input.name,
+    });
+  // A temporary password must be changed at first sign-in and stops working after
+  // QUARRY_TEMPORARY_PASSWORD_HOURS (OWASP ASVS 4.0.3 V2.3.1).
+  const temporaryUntil = new Date(
+    Date.now() + ctx.config.temporaryPasswordHours * 60 * 60 * 1000,
+  ).toISOString();
   const userId = input.temporaryPassword
     ? (
         await createAccount(ctx.db, {
@@ -48,6 +59,7 @@ export async function createUserByAdmin(
           name: input.name,
           password: input.temporaryPassword,
           isAdmin: input.isAdmin,
+          temporaryUntil,
         })
       ).id
     : (await createAccountWithSetupLink(ctx, input, actor, origin)).userId;

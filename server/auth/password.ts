@@ -1,4 +1,6 @@
 import { hash, verify, type Algorithm } from '@node-rs/argon2';
+import { newPasswordProblem, type PasswordContext } from '../../shared/password-policy';
+import { validationError } from '../http/errors';
 
 // Argon2id with the minimum configuration recommended by the OWASP Password Storage
 // Cheat Sheet (https://cheatsheetseries.owasp.org/cheatsheets/Password_Storage_Cheat_Sheet.html,
@@ -35,4 +37,17 @@ export async function verifyAgainstDummy(password: string): Promise<false> {
   dummyHash ??= hashPassword('quarry-dummy-password-for-constant-time');
   await verifyPassword(await dummyHash, password);
   return false;
+}
+
+/**
+ * 400 naming `field` when a new password is common, breached, guessable or the current
+ * one (shared/password-policy.ts; the client forms run the same check).
+ */
+export async function assertNewPassword(
+  field: string,
+  password: string,
+  context: PasswordContext,
+): Promise<void> {
+  const problem = await newPasswordProblem(password, context);
+  if (problem) throw validationError(field, problem);
 }

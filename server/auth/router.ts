@@ -1,6 +1,5 @@
 import { changePasswordSchema, signInSchema } from '../../shared/schemas/auth';
 import { defineRoute } from '../http/route';
-import { signInRateLimits } from './rate-limit';
 import { changePassword, readMe, signIn, signOut } from './service';
 
 export const authRoutes = [
@@ -9,7 +8,6 @@ export const authRoutes = [
     path: '/auth/sign-in',
     access: 'public',
     schemas: { body: signInSchema },
-    middleware: () => signInRateLimits(),
     summary: 'Sign in with e-mail and password',
     handler: ({ ctx, req, res, body, ip }) => signIn(ctx, req, res, body, ip),
   }),
@@ -26,6 +24,7 @@ export const authRoutes = [
     method: 'get',
     path: '/auth/me',
     access: 'signed-in',
+    beforePasswordChange: true,
     summary: 'The signed-in user and their matters',
     handler: ({ ctx, user }) => readMe(ctx.db, user.id),
   }),
@@ -33,6 +32,7 @@ export const authRoutes = [
     method: 'post',
     path: '/auth/password',
     access: 'signed-in',
+    beforePasswordChange: true,
     schemas: { body: changePasswordSchema },
     summary: 'Change my password (ends all my other sessions)',
     handler: ({ ctx, req, res, user, body, ip }) => changePassword(ctx, req, res, user, body, ip),

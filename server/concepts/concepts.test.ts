@@ -15,6 +15,7 @@ import type {
   SpectrumResponse,
 } from '../../shared/schemas/concepts';
 import type { IndexStateResponse } from '../../shared/schemas/indexing';
+import type { Job } from '../../shared/schemas/jobs';
 import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
 import { groupMemberIdsSubquery } from './queries';
 import { conceptsServiceFor, documentIdsInGroup } from './service';
@@ -188,9 +189,28 @@ describe('concept space over HTTP', () => {
   });
 
   it('groups: k-means with a seed, deterministic, the two topics apart, usable as a filter', async () => {
+    // A new grouping is a background job (k-means runs in a worker thread); the same
+    // settings asked again while it runs get the same job, and once it has succeeded the
+    // stored grouping.
     const res = await attorney.post(`${base()}/groupings`).send({ groups: 2, seed: 7 });
-    expect(res.status).toBe(201);
-    const body = res.body as GroupingResponse;
+    expect(res.status).toBe(202);
+    const jobId = (res.body as { job: Job }).job.id;
+    expect((res.body as { job: Job }).job.kind).toBe('concept-grouping');
+    const meanwhile = await lead.post(`${base()}/groupings`).send({ groups: 2, seed: 7 });
+    if (meanwhile.status === 202) expect(meanwhile.body.job.id).toBe(jobId);
+    await t.ctx.jobs.waitForIdle();
+    const finished = await attorney.get(`/api/jobs/${jobId}`);
+    expect(finished.body.job.status, finished.body.job.error ?? '').toBe('succeeded');
+    const stored = await attorney.post(`${base()}/groupings`).send({ groups: 2, seed: 7 });
+    expect(stored.status).toBe(200);
+    const body = stored.body as GroupingResponse;
+    const jobCount = await t.ctx.db
+      .selectFrom('jobs')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('matter_id', '=', matter.id)
+      .where('kind', '=', 'concept-grouping')
+      .executeTakeFirstOrThrow();
+    expect(jobCount.n).toBe(1);
     expect(body.groups.map((g) => g.number)).toEqual([1, 2]);
     expect(body.groups.reduce((s, g) => s + g.size, 0)).toBe(body.grouping.documents);
     expect(body.grouping.converged).toBe(true);

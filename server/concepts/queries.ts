@@ -1,5 +1,5 @@
 // All Kysely for the concept-space views (issue 6). Every function takes `db` first.
-import type { Kysely, Transaction } from 'kysely';
+import { sql, type Kysely, type Transaction } from 'kysely';
 import type { Database } from '../db/schema';
 
 type Executor = Kysely<Database> | Transaction<Database>;
@@ -291,4 +291,23 @@ export function groupMemberIdsSubquery(db: Executor, groupId: number) {
     .selectFrom('concept_group_members')
     .select('document_id')
     .where('group_id', '=', groupId);
+}
+
+/** A queued or running concept-grouping job of the matter for these settings. */
+export function findActiveGroupingJob(
+  db: Executor,
+  matterId: number,
+  settings: { indexId: number; groups: number; seed: number },
+) {
+  return db
+    .selectFrom('jobs')
+    .selectAll()
+    .where('matter_id', '=', matterId)
+    .where('kind', '=', 'concept-grouping')
+    .where('status', 'in', ['queued', 'running'])
+    .where(sql<number>`json_extract(payload, '$.indexId')`, '=', settings.indexId)
+    .where(sql<number>`json_extract(payload, '$.groups')`, '=', settings.groups)
+    .where(sql<number>`json_extract(payload, '$.seed')`, '=', settings.seed)
+    .orderBy('id')
+    .executeTakeFirst();
 }

@@ -91,14 +91,15 @@ export const conceptRoutes = [
     path: '/matters/:matterId/concepts/groupings',
     access: { matter: 'concepts.view' },
     schemas: { params: matterParams, body: createGroupingSchema },
-    summary: 'Group the documents by k-means (201 new, 200 when that grouping exists)',
+    summary:
+      'Group the documents by k-means: 200 with the grouping when it exists, else 202 with the job computing it',
     handler: async ({ ctx, matter, body, user, res }) => {
-      const { created, response } = await conceptsServiceFor(ctx).createGrouping(
+      const { status, response } = await conceptsServiceFor(ctx).createGrouping(
         matter.matterId,
         body,
         user.id,
       );
-      res.status(created ? 201 : 200).json(response);
+      res.status(status).json(response);
       return undefined;
     },
   }),

@@ -7,19 +7,18 @@
 // or privilege.
 import type { ConceptSpace } from '../engine/index';
 import { decodeSingularValues } from '../engine/index';
-import { columnExtremes, columnLargestAbs, topTermsOfVector } from '../engine/index';
+import { columnExtremes, columnLargestAbs } from '../engine/index';
 import { projectionDrift, summariseDrift, type DriftSummary } from '../engine/index';
 import { assessHealth, DEFAULT_HEALTH_THRESHOLDS } from '../engine/index';
-import { kmeans, KMeansInputError } from '../engine/index';
 import { mapCoordinates } from '../engine/index';
 import { termNeighbours } from '../engine/index';
 import { cumulativeEnergy, energyShare } from '../engine/index';
 import { analyze } from '../engine/index';
 import {
-  GROUP_TOP_TERMS,
   type ConceptDimension,
   type ConceptGroup,
   type CreateGroupingReq,
+  type CreateGroupingResponse,
   type DimensionLabel,
   type DimensionLabelResponse,
   type DimensionsQuery,
@@ -38,6 +37,9 @@ import {
   type SpectrumVersion,
 } from '../../shared/schemas/concepts';
 import type { AppContext } from '../context';
+import { jobRowToApi } from '../jobs/map';
+import { findJob } from '../jobs/queries';
+import type { GroupingPayload } from './grouping-job';
 import type { IndexVersionRow } from '../db/schema';
 import { conflict, notFound, validationError } from '../http/errors';
 import type { LoadedIndex } from '../indexing/service';
@@ -49,11 +51,11 @@ import {
   deleteLabel,
   documentsByIds,
   findGrouping,
+  findActiveGroupingJob,
   findGroupingBySettings,
   foldedInTexts,
   groupingsOfIndex,
   groupsOf,
-  insertGrouping,
   labelsOf,
   mapDocumentsOf,
   memberIdsOf,
@@ -62,15 +64,8 @@ import {
   type GroupingRow,
 } from './queries';
 
-/** k-means runs on the leading dimensions only (they carry most of the energy; cost is linear in it). */
-export const GROUPING_DIMS_MAX = 100;
-/**
- * Above this many documents k-means runs cheaper: the leading 50 dimensions, one seeding,
- * at most 40 Lloyd iterations (the grouping says whether it converged). Measured on this
- * project's 2-core machine: one Lloyd iteration over 100,000 documents x 100 dimensions
- * x 20 groups takes about 1.2 s; the cheap settings keep 20 groups near 10 s.
- */
-export const GROUPING_SMALL_MATTER = 20_000;
+export { GROUPING_DIMS_MAX, GROUPING_SMALL_MATTER } from './grouping-core';
+
 /**
  * Titles on the map are cut to this many characters (hover text; the viewer has the rest).
  * Measured payload at 100,000 points with 60-character titles: about 11 MB of JSON
@@ -410,88 +405,43 @@ export class ConceptsService {
     return out;
   }
 
-  /** POST .../concepts/groupings: the grouping for (current version, groups, seed), computed once. */
+  /**
+   * POST .../concepts/groupings: the stored grouping for (current version, groups, seed),
+   * or the background job computing it (one job per settings; grouping-core.ts).
+   */
   async createGrouping(
     matterId: number,
     body: CreateGroupingReq,
     userId: string,
-  ): Promise<{ created: boolean; response: GroupingResponse }> {
+  ): Promise<{ status: 200 | 202; response: CreateGroupingResponse }> {
     const { loaded } = await this.requireIndex(matterId);
-    const existing = await findGroupingBySettings(this.db, loaded.indexId, body.groups, body.seed);
-    if (existing) return { created: false, response: await this.groupingResponse(existing) };
-    const space = loaded.space;
-    const k = space.k;
-    const n = space.nDocs;
-    const small = n <= GROUPING_SMALL_MATTER;
-    const dims = Math.min(k, small ? GROUPING_DIMS_MAX : 50);
-    // Rows of V_k S_k (leading `dims` axes); kmeans scales each to unit length.
-    const rows = new Float32Array(n * dims);
-    const ids = new Float64Array(n);
-    for (let j = 0; j < n; j++) {
-      ids[j] = Number(space.docId(j));
-      const v = space.docVector(j);
-      for (let c = 0; c < dims; c++)
-        rows[j * dims + c] = space.scaling === 'classic' ? v[c] * space.sigma[c] : v[c];
-    }
-    let result;
-    try {
-      result = kmeans(rows, n, dims, {
-        groups: body.groups,
-        seed: body.seed,
-        ids,
-        restarts: small ? 8 : 1,
-        maxIterations: small ? 100 : 40,
-      });
-    } catch (error) {
-      if (error instanceof KMeansInputError) throw validationError('groups', error.message);
-      throw error;
-    }
-    // Number the groups by size, largest first (ties: lower k-means index first).
-    const order = Array.from({ length: body.groups }, (_, g) => g).sort(
-      (a, b) => result.sizes[b] - result.sizes[a] || a - b,
+    const settings = { indexId: loaded.indexId, groups: body.groups, seed: body.seed };
+    const existing = await findGroupingBySettings(
+      this.db,
+      settings.indexId,
+      body.groups,
+      body.seed,
     );
-    const members = order.map((g, rank) => {
-      const centre = result.centres.subarray(g * dims, (g + 1) * dims);
-      const top = topTermsOfVector(space.termVectors, space.nTerms, k, centre, GROUP_TOP_TERMS);
-      const documentIds: number[] = [];
-      for (let j = 0; j < n; j++) if (result.assignment[j] === g) documentIds.push(ids[j]);
-      return {
-        number: rank + 1,
-        size: result.sizes[g],
-        topTerms: JSON.stringify(
-          top.map((t) => ({
-            term: space.terms[t.index],
-            label: space.labels[t.index],
-            weight: t.value,
-          })),
-        ),
-        documentIds,
-      };
-    });
-    const centres = Float32Array.from(result.centres);
-    let groupingId: number;
-    try {
-      groupingId = await insertGrouping(this.db, {
-        indexId: loaded.indexId,
-        groups: body.groups,
-        seed: body.seed,
-        dims,
-        documents: n,
-        iterations: result.iterations,
-        converged: result.converged,
-        inertia: result.inertia,
-        centres: new Uint8Array(centres.buffer, centres.byteOffset, centres.byteLength),
+    if (existing) return { status: 200, response: await this.groupingResponse(existing) };
+    const n = loaded.space.nDocs;
+    if (body.groups > n)
+      throw validationError(
+        'groups',
+        `${body.groups} groups need at least ${body.groups} documents; there are ${n}`,
+      );
+    const active = await findActiveGroupingJob(this.db, matterId, settings);
+    const jobId =
+      active?.id ??
+      (await this.ctx.jobs.enqueue(this.db, {
+        matterId,
+        kind: 'concept-grouping',
+        payload: { ...settings, userId } satisfies GroupingPayload,
+        total: 1,
         createdBy: userId,
-        members,
-      });
-    } catch (error) {
-      // A concurrent request made the same grouping first: answer with it.
-      const again = await findGroupingBySettings(this.db, loaded.indexId, body.groups, body.seed);
-      if (again) return { created: false, response: await this.groupingResponse(again) };
-      throw error;
-    }
-    const row = await findGrouping(this.db, matterId, groupingId);
-    return { created: true, response: await this.groupingResponse(row!) };
+        message: 'Waiting to group the documents',
+      }));
+    const job = await findJob(this.db, jobId);
+    return { status: 202, response: { job: jobRowToApi(job!) } };
   }
 
   private async groupingResponse(row: GroupingRow): Promise<GroupingResponse> {

@@ -1,8 +1,9 @@
-import { mkdirSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { dirname } from 'node:path';
 import SQLite from 'better-sqlite3';
 import { Kysely, Migrator, SqliteDialect, type MigrationProvider } from 'kysely';
 import { migrations } from '../../migrations/index';
+import { ensurePrivateDir, ensurePrivateFile } from '../storage/file-modes';
 import type { Database } from './schema';
 
 export type Db = Kysely<Database>;
@@ -13,9 +14,19 @@ export interface OpenedDatabase {
   sqlite: SQLite.Database;
 }
 
-/** Opens (creating if needed) the SQLite file with WAL, foreign keys and a busy timeout. */
+/**
+ * Opens (creating if needed) the SQLite file with WAL, foreign keys and a busy timeout.
+ * The file is created owner-only (0600) first; SQLite gives its -wal and -shm files the
+ * database file's permissions ("Temporary Files Used By SQLite"; os_unix.c
+ * findCreateFileMode), and existing ones are tightened too.
+ */
 export function openDatabase(file: string): OpenedDatabase {
-  if (file !== ':memory:') mkdirSync(dirname(file), { recursive: true });
+  if (file !== ':memory:') {
+    ensurePrivateDir(dirname(file));
+    ensurePrivateFile(file);
+    for (const side of [`${file}-wal`, `${file}-shm`])
+      if (existsSync(side)) ensurePrivateFile(side);
+  }
   const sqlite = new SQLite(file);
   sqlite.pragma('journal_mode = WAL');
   sqlite.pragma('foreign_keys = ON');

@@ -18,12 +18,18 @@ export interface UsersTable {
   disabled_at: string | null;
   password_changed_at: string;
   created_at: string;
+  /** 1: a firm admin set a temporary password; nothing but changing it is allowed. */
+  password_must_change: Generated<number>;
+  /** When a temporary password stops working (ISO 8601); null for chosen passwords. */
+  password_expires_at: Generated<string | null>;
 }
 
 export interface SessionsTable {
   id: string;
   user_id: string;
   expires_at: number;
+  /** Unix seconds; the absolute lifetime counts from here. */
+  created_at: number;
 }
 
 export interface MattersTable {
@@ -408,6 +414,76 @@ export interface DocumentTrashBlobsTable {
   sha256: string;
 }
 
+/** A redaction marked on a document (server/redactions); burned into produced pages only. */
+export interface RedactionsTable {
+  id: Generated<number>;
+  matter_id: number;
+  document_id: number;
+  kind: 'span' | 'pattern' | 'box';
+  /** span: character offsets into the document's extracted body text. */
+  start_offset: number | null;
+  end_offset: number | null;
+  /** pattern: a literal term, or a format mask ('#' a digit, '@' a letter). */
+  pattern: string | null;
+  pattern_kind: 'term' | 'format' | null;
+  /** box: 1-based page of the original PDF and the box as fractions of the page, from top left. */
+  page: number | null;
+  x: number | null;
+  y: number | null;
+  width: number | null;
+  height: number | null;
+  reason: string;
+  created_by: string;
+  created_at: string;
+  removed_at: string | null;
+  removed_by: string | null;
+  /** The built production that burned this redaction in (it can no longer be removed). */
+  produced_in: number | null;
+}
+
+export type ProductionState = 'draft' | 'building' | 'built' | 'failed';
+
+export interface ProductionsTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  /** JSON: { savedSearchId } or { codes, excludeCodes } as requested. */
+  source: string;
+  bates_prefix: string;
+  bates_start: number;
+  bates_padding: number;
+  legend: Generated<string>;
+  /** JSON [{ codeId, legend }]: a per-document legend from a code. */
+  legend_codes: Generated<string>;
+  privileged: 'withhold' | 'redact';
+  natives: Generated<string>;
+  state: Generated<ProductionState>;
+  job_id: number | null;
+  first_seq: number | null;
+  last_seq: number | null;
+  pages: number | null;
+  zip_sha256: string | null;
+  zip_size: number | null;
+  error: string | null;
+  created_by: string;
+  created_at: string;
+  built_at: string | null;
+}
+
+export interface ProductionDocumentsTable {
+  production_id: number;
+  document_id: number;
+  /** source: chosen by the production's source; added: a family member added by the user; slip-sheet: a family member replaced by a slip sheet. */
+  origin: 'source' | 'added' | 'slip-sheet';
+  position: number | null;
+  /** After the build: produced, redacted, withheld or native. */
+  treatment: string | null;
+  begin_seq: number | null;
+  end_seq: number | null;
+  pages: number | null;
+  legend: string | null;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -446,6 +522,9 @@ export interface Database {
   legal_holds: LegalHoldsTable;
   document_trash: DocumentTrashTable;
   document_trash_blobs: DocumentTrashBlobsTable;
+  redactions: RedactionsTable;
+  productions: ProductionsTable;
+  production_documents: ProductionDocumentsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

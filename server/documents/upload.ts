@@ -48,6 +48,25 @@ function describeMulterError(ctx: AppContext, error: multer.MulterError): Error 
   }
 }
 
+/**
+ * busboy's parse errors ("Malformed part header", "Unexpected end of form", ...) mean
+ * the request body is broken: a 400 with busboy's reason and a warning. Filesystem errors
+ * (they carry an errno code such as ENOSPC) stay server errors.
+ */
+function malformedOrServerError(ctx: AppContext, req: Request, error: unknown): unknown {
+  const code = (error as { code?: unknown } | null)?.code;
+  if (!(error instanceof Error) || (typeof code === 'string' && /^E[A-Z]+$/.test(code)))
+    return error;
+  ctx.logger.warn(
+    { url: req.originalUrl, reason: error.message },
+    'upload refused: malformed multipart/form-data body',
+  );
+  return validationError(
+    'files',
+    `the multipart/form-data body is malformed (${error.message}); send the files again`,
+  );
+}
+
 /** Middleware chain for POST /api/matters/:matterId/documents. */
 export function uploadMiddleware(ctx: AppContext): RequestHandler[] {
   const { upload } = ctx.config;
@@ -114,8 +133,23 @@ export function uploadMiddleware(ctx: AppContext): RequestHandler[] {
         // Stop reading the rest of the body: the answer is already known.
         return next(describeMulterError(ctx, error));
       }
-      if (error) return next(error);
+      if (error) return next(malformedOrServerError(ctx, req, error));
       const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+      // A NUL cannot be part of a file name on any filesystem Quarry writes to (POSIX
+      // "Filename"; Node's fs refuses it): the client's fault, not a server failure.
+      const withNul = files.find((f) => f.originalname.includes('\0'));
+      if (withNul) {
+        ctx.logger.warn(
+          { url: req.originalUrl, field: 'files' },
+          'upload refused: a file name contains a NUL byte',
+        );
+        return next(
+          validationError(
+            'files',
+            `the file name "${withNul.originalname.replace(/\0/g, '\\0')}" contains a NUL byte; rename the file and upload it again`,
+          ),
+        );
+      }
       if (files.length === 0)
         return next(validationError('files', `choose at least one file (field "${UPLOAD_FIELD}")`));
       const total = files.reduce((sum, f) => sum + f.size, 0);

@@ -1,6 +1,13 @@
 // The concept engine's public surface, for the server, the worker thread and the CLI.
 // Pure TypeScript over typed arrays; no Express, no server imports.
-export { analyze, tokenize, ANALYZER_VERSION } from './text/analyzer';
+export {
+  analyze,
+  analyzeWithSurface,
+  isStopWord,
+  tokenize,
+  ANALYZER_VERSION,
+} from './text/analyzer';
+export { PORTER_MAX_BYTES, TOKEN_MAX_BYTES } from './text/token-limits';
 export { buildTermDocumentMatrix, type TermDocumentMatrix } from './index/term-document';
 export {
   globalWeights,
@@ -42,7 +49,13 @@ export {
   type KeywordHit,
   type KeywordSearchOptions,
 } from './search/keyword';
-export { fuseScores, minMaxNormalise, type FusedHit, type Scored } from './search/fusion';
+export {
+  coverageWeight,
+  fuseScores,
+  minMaxNormalise,
+  type FusedHit,
+  type Scored,
+} from './search/fusion';
 export {
   search,
   prepareForSearch,
@@ -114,3 +127,19 @@ export {
 } from './linalg/svd';
 export { KeywordIndex, keywordQueryTerms } from './search/keyword-index';
 export { frobeniusNormSq, nnzOf, type CsrMatrix, csrFromTriplets } from './sparse/csr';
+export {
+  parseQuery,
+  lexQuery,
+  positiveLeaves,
+  textLeafToFts,
+  shiftDay,
+  QuerySyntaxError,
+  QUERY_FIELDS,
+  type ParsedQuery,
+  type QueryNode,
+  type TextLeaf,
+  type MetaLeaf,
+  type DateLeaf,
+  type QueryField,
+} from './search/query-language';
+export { ftsRawTokens, porterStem } from './search/fts5-tokens';

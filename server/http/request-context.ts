@@ -11,6 +11,8 @@ export interface SessionUser {
 export interface AuthState {
   user: SessionUser;
   sessionId: string;
+  /** A firm admin set this account's password: only changing it is allowed until then. */
+  mustChangePassword: boolean;
 }
 
 /** Set by the policy middleware on every /api/matters/:matterId route: the caller's current role. */

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { MatterPermission } from '../../shared/roles';
 import type { AppContext } from '../context';
 import { assertKnownAccess, requireAccess, type Access } from '../policy/policy';
+import { HttpError } from './errors';
 import type { MatterAccess, SessionUser } from './request-context';
 import { validate, type ParsedInput, type RequestSchemas } from './validate';
 
@@ -36,6 +37,14 @@ export interface RouteSpec<A extends Access = Access, S extends RequestSchemas =
   method: HttpMethod;
   path: string;
   access: A;
+  /** The rule in development mode (QUARRY_DEV=1, `npm run dev`) instead of `access`. */
+  devAccess?: Access;
+  /**
+   * Open to a session whose password a firm admin set and that must change it first
+   * (reading me, changing the password). Every other signed-in route refuses it with 403
+   * password_change_required (OWASP ASVS 4.0.3 V2.3.1).
+   */
+  beforePasswordChange?: boolean;
   schemas?: S;
   status?: number;
   /** One line for docs and the authorization-matrix test output. */
@@ -50,6 +59,8 @@ export interface AnyRouteSpec {
   method: HttpMethod;
   path: string;
   access: Access;
+  devAccess?: Access;
+  beforePasswordChange?: boolean;
   schemas?: RequestSchemas;
   status?: number;
   summary: string;
@@ -89,6 +100,8 @@ export function mountRoutes(
     if (seen.has(key)) throw new Error(`route declared twice: ${key}`);
     seen.add(key);
     assertKnownAccess(spec.access, key);
+    if (spec.devAccess) assertKnownAccess(spec.devAccess, key);
+    const access = ctx.config.devMode && spec.devAccess ? spec.devAccess : spec.access;
     // Anything under a matter is scoped to its members (or firm admins on /admin routes).
     if (/:matterId(\/|$)/.test(spec.path) && typeof spec.access === 'string') {
       throw new Error(`${key}: a route with :matterId needs a { matter } or { firm } access rule`);
@@ -111,9 +124,19 @@ export function mountRoutes(
       else res.status(spec.status ?? 200).json(result);
     };
     handler[DECLARED_ROUTE] = spec;
+    const passwordGate: RequestHandler = (req, _res, next) =>
+      req.auth?.mustChangePassword && access !== 'public' && !spec.beforePasswordChange
+        ? next(
+            new HttpError(
+              'password_change_required',
+              'A firm administrator set your password: choose your own (My account) before anything else.',
+            ),
+          )
+        : next();
     router[spec.method](
       spec.path,
-      requireAccess(ctx.db, spec.access),
+      passwordGate,
+      requireAccess(ctx.db, access),
       ...(spec.middleware?.(ctx) ?? []),
       validate(spec.schemas),
       handler,

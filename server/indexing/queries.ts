@@ -139,3 +139,54 @@ export async function countFoldedIn(db: Executor, indexId: number) {
     .executeTakeFirstOrThrow();
   return { total: Number(row.n), folded: Number(row.folded ?? 0) };
 }
+
+/** Which of `ids` are still extracted documents of the matter. */
+export async function stillExtracted(db: Executor, matterId: number, ids: number[]) {
+  const out: number[] = [];
+  for (let start = 0; start < ids.length; start += 500) {
+    const rows = await db
+      .selectFrom('documents')
+      .select('id')
+      .where('matter_id', '=', matterId)
+      .where('extract_status', '=', 'extracted')
+      .where('id', 'in', ids.slice(start, start + 500))
+      .execute();
+    for (const r of rows) out.push(r.id);
+  }
+  return out;
+}
+
+/**
+ * Matters holding extracted documents that their serving index version lacks (every
+ * extracted document, for a matter with no index yet).
+ */
+export async function extractedNotIndexedMatters(
+  db: Executor,
+): Promise<{ matterId: number; hasIndex: boolean }[]> {
+  const rows = await db
+    .selectFrom('matters as m')
+    .select(['m.id', 'm.current_index_id'])
+    .where((eb) =>
+      eb.exists(
+        eb
+          .selectFrom('documents as d')
+          .select('d.id')
+          .whereRef('d.matter_id', '=', 'm.id')
+          .where('d.extract_status', '=', 'extracted')
+          .where((inner) =>
+            inner.not(
+              inner.exists(
+                inner
+                  .selectFrom('index_docs as x')
+                  .select('x.document_id')
+                  .whereRef('x.document_id', '=', 'd.id')
+                  .whereRef('x.index_id', '=', 'm.current_index_id'),
+              ),
+            ),
+          ),
+      ),
+    )
+    .orderBy('m.id')
+    .execute();
+  return rows.map((r) => ({ matterId: r.id, hasIndex: r.current_index_id !== null }));
+}

@@ -1,17 +1,12 @@
-// The index service: each matter's current concept space in memory (loaded from SQLite
-// on first use), folding-in of newly extracted documents (Deerwester et al. 1990, §4),
-// and full rebuilds in a worker thread that replace the serving version in one
-// transaction. Other features (search) call getSpace / getIndex.
-import { Worker } from 'node:worker_threads';
+// The index service: each matter's current concept space in memory (serving-cache.ts),
+// folding-in of newly extracted documents (Deerwester et al. 1990, §4) computed in a
+// worker thread (fold-pool.ts), and full rebuilds in a worker thread (build-runner.ts)
+// that replace the serving version in one transaction. Other features (search) call
+// getSpace / getIndex.
 import type { Kysely } from 'kysely';
 import type { Logger } from 'pino';
 import type { ConceptSpace } from '../engine/index';
-import {
-  decodeSingularValues,
-  loadConceptSpace,
-  saveFoldedDocuments,
-  type IndexTables,
-} from '../engine/index';
+import { decodeSingularValues, saveFoldedDocuments, type IndexTables } from '../engine/index';
 import type { Weighting } from '../engine/index';
 import { prepareForSearch } from '../engine/index';
 import {
@@ -25,32 +20,30 @@ import { recordAudit } from '../audit/record';
 import type { Config } from '../config';
 import type { Db } from '../db/database';
 import type { IndexVersionRow } from '../db/schema';
-import { countExtracted, countIndexStates, listExtractedNotInIndex } from '../documents/queries';
+import { countExtracted, countIndexStates } from '../documents/queries';
 import { conflict } from '../http/errors';
 import { findActiveJob, findJob } from '../jobs/queries';
 import { jobRowToApi } from '../jobs/map';
 import type { JobRun, JobRunner } from '../jobs/runner';
-import type { BuildRequest, BuildSummary } from './build-core';
+import type { BuildSummary } from './build-core';
+import { BuildWorkers } from './build-runner';
+import { FoldWorker } from './fold-pool';
 import {
   countFoldedIn,
   currentIndexIdOf,
+  extractedNotIndexedMatters,
   failStaleBuilds,
   findIndexVersion,
   insertBuildingVersion,
   latestVersionWithStatus,
   markVersionFailed,
   pruneSuperseded,
+  stillExtracted,
   switchToVersion,
 } from './queries';
+import { ServingCache, type LoadedIndex } from './serving-cache';
 
-const WORKER_URL = new URL('./build-worker.mjs', import.meta.url);
-
-/** The serving version of a matter's index. */
-export interface LoadedIndex {
-  indexId: number;
-  version: number;
-  space: ConceptSpace;
-}
+export type { LoadedIndex } from './serving-cache';
 
 /** Payload of a build-index job. */
 export interface BuildIndexPayload {
@@ -60,11 +53,8 @@ export interface BuildIndexPayload {
   reason: 'requested' | 'fold-in share' | 'first build' | 'document purged';
   requestedBy?: string | null;
   requestedByEmail?: string | null;
-}
-
-interface ActiveBuild {
-  worker: Worker;
-  indexId: number;
+  /** Times this build was queued again after a restart interrupted it. */
+  restarts?: number;
 }
 
 function parseParams(row: IndexVersionRow): Record<string, unknown> {
@@ -108,17 +98,18 @@ export function versionToApi(row: IndexVersionRow): IndexVersionInfo {
 }
 
 export class IndexService {
-  private readonly cache = new Map<number, LoadedIndex>();
-  private readonly loading = new Map<number, Promise<LoadedIndex | null>>();
-  private readonly locks = new Map<number, Promise<unknown>>();
-  private readonly builds = new Map<number, ActiveBuild>();
+  private readonly serving: ServingCache;
+  private readonly builds = new BuildWorkers();
+  private readonly folds = new FoldWorker();
   private jobs: JobRunner | null = null;
 
   constructor(
     private readonly db: Db,
     private readonly config: Config,
     private readonly logger: Logger,
-  ) {}
+  ) {
+    this.serving = new ServingCache(db);
+  }
 
   /** The runner is created after the service (its handlers call back into it). */
   attachJobs(jobs: JobRunner): void {
@@ -131,35 +122,12 @@ export class IndexService {
 
   /** Runs `work` after earlier work for the same matter (fold-ins and switches never interleave). */
   private withLock<T>(matterId: number, work: () => Promise<T>): Promise<T> {
-    const previous = this.locks.get(matterId) ?? Promise.resolve();
-    const next = previous.then(work, work);
-    this.locks.set(
-      matterId,
-      next.catch(() => undefined),
-    );
-    return next;
+    return this.serving.withLock(matterId, work);
   }
 
   /** The matter's serving index (loaded from SQLite on first use), or null before the first build. */
-  async getIndex(matterId: number): Promise<LoadedIndex | null> {
-    const indexId = await currentIndexIdOf(this.db, matterId);
-    if (indexId === null) return null;
-    const cached = this.cache.get(matterId);
-    if (cached?.indexId === indexId) return cached;
-    let pending = this.loading.get(matterId);
-    if (!pending) {
-      pending = (async () => {
-        const row = await findIndexVersion(this.db, indexId);
-        if (!row) return null;
-        const space = await loadConceptSpace(this.indexDb, indexId);
-        prepareForSearch(space);
-        const loaded = { indexId, version: row.version, space };
-        this.cache.set(matterId, loaded);
-        return loaded;
-      })().finally(() => this.loading.delete(matterId));
-      this.loading.set(matterId, pending);
-    }
-    return pending;
+  getIndex(matterId: number): Promise<LoadedIndex | null> {
+    return this.serving.get(matterId);
   }
 
   /** The matter's current concept space, or null when none is built yet. */
@@ -169,7 +137,7 @@ export class IndexService {
 
   /** Forgets the in-memory space (after documents are deleted); the next use reloads it. */
   invalidate(matterId: number): void {
-    this.cache.delete(matterId);
+    this.serving.invalidate(matterId);
   }
 
   /**
@@ -206,12 +174,24 @@ export class IndexService {
     return this.withLock(matterId, async () => {
       const loaded = await this.getIndex(matterId);
       if (!loaded) return 0;
-      const rows = await listExtractedNotInIndex(this.db, matterId, loaded.indexId);
-      if (rows.length === 0) return 0;
-      const folded = loaded.space.foldInDocuments(
-        rows.map((row) => ({ id: row.id, title: row.title, text: row.body })),
+      // Analysing the texts happens in the worker; here the vectors are only stored.
+      const vectors = await this.folds.fold({
+        dbFile: this.config.dbFile,
+        matterId,
+        indexId: loaded.indexId,
+      });
+      if (vectors.length === 0) return 0;
+      // A document deleted while the worker ran is not added back.
+      const alive = new Set(
+        await stillExtracted(
+          this.db,
+          matterId,
+          vectors.map((v) => v.id),
+        ),
       );
+      const folded = vectors.filter((v) => alive.has(v.id));
       await saveFoldedDocuments(this.indexDb, loaded.indexId, folded);
+      for (const f of folded) loaded.space.putVector(f.id, f.vector, true);
       prepareForSearch(loaded.space); // the new vectors reset the search caches
       this.logger.info({ matterId, documents: folded.length }, 'documents folded into the index');
       return folded.length;
@@ -350,7 +330,7 @@ export class IndexService {
           },
         });
       });
-      this.cache.delete(matterId);
+      this.serving.invalidate(matterId);
       await pruneSuperseded(this.db, matterId);
     });
     // Documents extracted while the worker ran are folded into the new version.
@@ -367,75 +347,66 @@ export class IndexService {
     settings: { k: number; weighting: Weighting },
     run: JobRun<BuildIndexPayload>,
   ): Promise<BuildSummary> {
-    const request: BuildRequest = {
-      dbFile: this.config.dbFile,
-      matterId,
-      indexId,
-      k: settings.k,
-      weighting: settings.weighting,
-    };
-    return new Promise<BuildSummary>((resolve, reject) => {
-      const worker = new Worker(WORKER_URL, { workerData: request });
-      this.builds.set(matterId, { worker, indexId });
-      let settled = false;
-      const finish = (error: Error | null, summary?: BuildSummary) => {
-        if (settled) return;
-        settled = true;
-        this.builds.delete(matterId);
-        run.signal.removeEventListener('abort', onAbort);
-        if (error) reject(error);
-        else resolve(summary!);
-      };
-      const onAbort = () => void worker.terminate();
-      run.signal.addEventListener('abort', onAbort);
-      worker.on(
-        'message',
-        (message: { type: string; fraction?: number; result?: BuildSummary; message?: string }) => {
-          if (message.type === 'progress' && typeof message.fraction === 'number') {
-            void run
-              .progress({
-                progress: Math.round(message.fraction * 100),
-                message:
-                  message.fraction < 0.9 ? 'Computing the concept space' : 'Saving the new version',
-              })
-              .catch(() => undefined);
-          } else if (message.type === 'done') finish(null, message.result);
-          else if (message.type === 'error')
-            finish(new Error(message.message ?? 'the build failed'));
-        },
-      );
-      worker.on('error', (error: Error & { code?: string }) =>
-        finish(
-          new Error(
-            error.code === 'ERR_WORKER_OUT_OF_MEMORY'
-              ? 'the build ran out of memory'
-              : `the build worker crashed: ${error.message}`,
-          ),
-        ),
-      );
-      worker.on('exit', (code) =>
-        finish(new Error(`the build worker stopped before finishing (exit code ${code})`)),
-      );
-    });
+    return this.builds.run(
+      {
+        dbFile: this.config.dbFile,
+        matterId,
+        indexId,
+        k: settings.k,
+        weighting: settings.weighting,
+      },
+      run,
+    );
   }
 
   /** Stops a running build's worker (shutdown, tests); the previous version keeps serving. */
-  async terminateBuild(matterId: number): Promise<boolean> {
-    const build = this.builds.get(matterId);
-    if (!build) return false;
-    await build.worker.terminate();
-    return true;
+  terminateBuild(matterId: number): Promise<boolean> {
+    return this.builds.terminate(matterId);
   }
 
   /** True while a build worker runs for the matter. */
   isBuilding(matterId: number): boolean {
-    return this.builds.has(matterId);
+    return this.builds.isBuilding(matterId);
   }
 
   /** At start-up: versions a crash left 'building' are failed (their job is failed by the runner). */
   async recoverInterrupted(): Promise<void> {
     const n = await failStaleBuilds(this.db, 'interrupted by a restart');
     if (n > 0) this.logger.warn({ versions: n }, 'index builds interrupted by a restart');
+  }
+
+  /**
+   * At start-up, after the job runner's own recovery: documents a crash left extracted
+   * but outside the serving index are folded in (in the worker, so a large one does not
+   * hold up the server), and a matter with extracted documents but no index and no
+   * build queued gets its first build.
+   */
+  /** Starts recoverWaitingDocuments in the background; `recovery` settles when it is done. */
+  startRecovery(): void {
+    this.recovery = this.recoverWaitingDocuments().catch((error: unknown) => {
+      this.logger.error({ err: error }, 'start-up index recovery failed');
+      return { folded: 0, queued: 0 };
+    });
+  }
+
+  /** The start-up recovery's outcome (tests wait for it). */
+  recovery: Promise<{ folded: number; queued: number }> = Promise.resolve({ folded: 0, queued: 0 });
+
+  async recoverWaitingDocuments(): Promise<{ folded: number; queued: number }> {
+    const matters = await extractedNotIndexedMatters(this.db);
+    let folded = 0;
+    let queued = 0;
+    for (const { matterId, hasIndex } of matters) {
+      try {
+        if (hasIndex) folded += await this.foldInWaiting(matterId);
+        else if ((await this.queueBuild(matterId, { reason: 'first build' })) !== null) queued++;
+      } catch (error) {
+        this.logger.error({ err: error, matterId }, 'start-up fold-in failed');
+      }
+    }
+    if (folded + queued > 0)
+      this.logger.info({ folded, queued }, 'documents left outside the index by a restart');
+    return { folded, queued };
   }
 
   /** GET .../index */
@@ -461,6 +432,6 @@ export class IndexService {
   }
 
   async close(): Promise<void> {
-    await Promise.allSettled([...this.builds.values()].map((b) => b.worker.terminate()));
+    await Promise.allSettled([this.builds.close(), this.folds.close()]);
   }
 }

@@ -12,6 +12,7 @@ import {
   type TestMatter,
   type TestUser,
 } from '../../tests/helpers';
+import { SIGN_IN_FREE_FAILURES_PER_ADDRESS } from '../auth/rate-limit';
 
 let t: TestApp;
 let lead: TestUser;
@@ -69,8 +70,9 @@ describe('a new person accepts an invitation', () => {
     expect(JSON.stringify(row)).not.toContain(tokenOf(link));
   });
 
-  test('the dev mailbox lists the message with its link', async () => {
-    const response = await t.agent().get('/api/dev/mail');
+  test('the dev mailbox lists the message with its link (for a firm admin)', async () => {
+    const admin = await t.agentFor(await t.buildUser({ isAdmin: true }));
+    const response = await admin.get('/api/dev/mail');
     expect(response.status).toBe(200);
     expect(response.body.fakeSmtp).toBe(true);
     const message = response.body.messages.find((m: { to: string[] }) => m.to.includes(email));
@@ -316,21 +318,45 @@ describe('an existing account accepts', () => {
   });
 });
 
+describe('password guesses through an invitation link', () => {
+  // The review: 30 guesses of an existing account's password through its invitation all
+  // got a plain 401, never 429. They now share the sign-in throttle (server/auth/rate-limit.ts).
+  test('429 with Retry-After after the free failures, even for the right password; sign-in shares the count', async () => {
+    const existing = await t.buildUser({ email: 'guessed@example.com' });
+    await invite(existing.email, 'reviewer');
+    const token = tokenOf(await linkFor(existing.email));
+    for (let i = 0; i < SIGN_IN_FREE_FAILURES_PER_ADDRESS; i++) {
+      const wrong = await t
+        .agent()
+        .post(`/api/invitations/${token}/accept`)
+        .send({ password: `guess number ${i}` });
+      expect(wrong.status).toBe(401);
+    }
+    const blocked = await t
+      .agent()
+      .post(`/api/invitations/${token}/accept`)
+      .send({ password: existing.password });
+    expect(blocked.status).toBe(429);
+    expect(blocked.body.error.code).toBe('rate_limited');
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    const signIn = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: existing.email, password: existing.password });
+    expect(signIn.status).toBe(429);
+  });
+});
+
 describe('dev mailbox visibility', () => {
-  test('GET /api/dev/mail is 404 outside demo and dev mode', async () => {
+  test('GET /api/dev/mail is 404 outside demo and dev mode (server/dev/dev.test.ts has the rest)', async () => {
     const production = await createTestApp({ env: { QUARRY_DEMO: '0' } });
     try {
-      const response = await production.agent().get('/api/dev/mail');
+      const admin = await production.agentFor(await production.buildUser({ isAdmin: true }));
+      const response = await admin.get('/api/dev/mail');
       expect(response.status).toBe(404);
       expect(response.body.error.code).toBe('not_found');
     } finally {
       await production.close();
-    }
-    const dev = await createTestApp({ env: { QUARRY_DEMO: '0', QUARRY_DEV: '1' } });
-    try {
-      expect((await dev.agent().get('/api/dev/mail')).status).toBe(200);
-    } finally {
-      await dev.close();
     }
   });
 });

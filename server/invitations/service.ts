@@ -11,7 +11,7 @@ import { invitationNewPasswordSchema } from '../../shared/schemas/invitations';
 import type { PendingInvitation } from '../../shared/schemas/members';
 import { personNameSchema } from '../../shared/schemas/common';
 import { recordAudit } from '../audit/record';
-import { hashPassword, verifyPassword } from '../auth/password';
+import { assertNewPassword, hashPassword, verifyPassword } from '../auth/password';
 import type { AppContext } from '../context';
 import {
   conflict,
@@ -190,7 +190,10 @@ export async function acceptInvitation(
           'password',
         );
       }
+      // The same throttle as sign-in: this is a password check too.
+      ctx.auth.throttle.assertAllowed(res, existing.email, ip);
       if (!(await verifyPassword(existing.password_hash, input.password))) {
+        ctx.auth.throttle.recordFailure(existing.email, ip);
         throw new HttpError(
           'invalid_credentials',
           `The password is not correct for ${existing.email}.`,
@@ -203,6 +206,10 @@ export async function acceptInvitation(
     if (!name.success) throw validationError('name', name.error.issues[0].message);
     const password = invitationNewPasswordSchema.safeParse(input.password);
     if (!password.success) throw validationError('password', password.error.issues[0].message);
+    await assertNewPassword('password', password.data, {
+      email: invitation.email,
+      name: name.data,
+    });
     newUser = {
       id: randomUUID(),
       name: name.data,

@@ -4,7 +4,7 @@
 // 'projection' scaling, S_k^-1 for 'classic'); the contributions add up to the cosine.
 // The engine's explainMatch takes a query string; this takes any vector (a query, a
 // passage or a document for "more like this").
-import type { ConceptSpace } from '../engine/index';
+import type { ConceptSpace, WeightedTerms } from '../engine/index';
 
 function termDot(space: ConceptSpace, termId: number, x: ArrayLike<number>): number {
   const k = space.k;
@@ -37,12 +37,30 @@ export function topContributions(
   limit: number,
   dots: Map<number, number> = new Map(),
 ): { term: string; contribution: number }[] {
+  return topContributionsOfWeighted(
+    space,
+    query,
+    documentIndex,
+    space.weightTerms(documentTerms),
+    limit,
+    dots,
+  );
+}
+
+/** topContributions for a document's terms already weighted by `space` (weightTerms). */
+export function topContributionsOfWeighted(
+  space: ConceptSpace,
+  query: Float64Array,
+  documentIndex: number,
+  weighted: WeightedTerms,
+  limit: number,
+  dots: Map<number, number> = new Map(),
+): { term: string; contribution: number }[] {
   const d = space.docVector(documentIndex);
   const qn = norm(query);
   const dn = norm(d);
   if (!(qn > 0 && dn > 0)) return [];
   const scale = 1 / (qn * dn);
-  const weighted = space.weightTerms(documentTerms);
   const out: { term: string; contribution: number }[] = [];
   for (let p = 0; p < weighted.ids.length; p++) {
     const id = weighted.ids[p];

@@ -195,11 +195,21 @@ export async function documentsByIds(db: Executor, matterId: number, ids: number
   return out;
 }
 
-export function textsByIds(db: Executor, ids: number[]) {
+/**
+ * The first `windowChars` characters of each text's title and body (SQLite substr counts
+ * characters), and the body's full length: a hit's snippet and "why it matched" read a
+ * bounded window, so a page of multi-megabyte e-mails costs no more than short ones.
+ */
+export function textsByIds(db: Executor, ids: number[], windowChars: number) {
   if (ids.length === 0) return Promise.resolve([]);
   return db
     .selectFrom('document_texts')
-    .select(['document_id', 'title', 'body'])
+    .select((eb) => [
+      'document_id',
+      eb.fn<string>('substr', ['title', sql.lit(1), sql.lit(windowChars)]).as('title'),
+      eb.fn<string>('substr', ['body', sql.lit(1), sql.lit(windowChars)]).as('body'),
+      eb.fn<number>('length', ['body']).as('body_length'),
+    ])
     .where('document_id', 'in', ids)
     .execute();
 }

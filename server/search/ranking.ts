@@ -14,7 +14,7 @@
 //             a query (Deerwester et al. 1990, section 4), ranked like concept mode.
 import type { ConceptSpace } from '../engine/index';
 import { nearestTerms } from '../engine/index';
-import { fuseScores, type Scored } from '../engine/index';
+import { coverageWeight, fuseScores, type Scored } from '../engine/index';
 import { keywordQueryTerms } from '../engine/index';
 import { DEFAULT_HYBRID } from '../engine/index';
 import { topCosine } from '../engine/index';
@@ -23,6 +23,7 @@ import type { SearchFilters, SearchMode, SimilarTo } from '../../shared/schemas/
 import type { AppContext } from '../context';
 import { conflict, notFound } from '../http/errors';
 import { duplicatesOf, filteredDocumentIds, findSearchableDocument, restricts } from './queries';
+import { booleanRanking, parseSearchQuery, type BooleanRanking } from './boolean';
 
 /**
  * Concept hits need at least this cosine. Below it a document shares little with the
@@ -64,6 +65,8 @@ export interface RankedSet {
   queryTerms: Set<string>;
   /** The query's nearest terms in the concept space (stems), best first. */
   nearest: { term: string; similarity: number }[];
+  /** The cosine the list was cut at (concept lists of plain queries), else undefined. */
+  conceptCutoff?: number;
 }
 
 function candidateMask(space: ConceptSpace, ids: number[]): Uint8Array {
@@ -133,10 +136,19 @@ export async function rankResultSet(
     notices.push('No concept index yet: this hybrid search ran as a keyword search.');
   }
   const filters = input.filters;
-  const allowIds = restricts(filters)
+  let allowIds = restricts(filters)
     ? filteredDocumentIds(ctx.db, ctx.sqlite, matterId, filters)
     : null;
+  // A query with any operator, phrase, wildcard or field is a Boolean filter: its match
+  // set (boolean.ts) bounds every mode's list, and its positive words rank the hits.
+  const parsed = input.similarTo ? null : parseSearchQuery(input.query ?? '');
+  let booleanQuery: BooleanRanking | null = null;
+  if (parsed?.structured) {
+    booleanQuery = booleanRanking(ctx.sqlite, matterId, parsed, allowIds);
+    allowIds = [...booleanQuery.matches];
+  }
   const mask = space && allowIds ? candidateMask(space, allowIds) : undefined;
+  const rankingText = booleanQuery ? booleanQuery.text : (input.query ?? '');
 
   let queryVector: Float64Array | null = null;
   let queryTerms = new Set<string>();
@@ -180,41 +192,47 @@ export async function rankResultSet(
     }
   } else if (space) {
     // Keyword mode uses the vector only for the query's nearest terms (refinements).
-    const q = space.queryVector(input.query ?? '');
+    const q = space.queryVector(rankingText);
     queryVector = q.vector;
     knownTerms = Array.from(q.weighted.ids, (id) => space.terms[id]);
     unknownTerms = q.weighted.unknown;
   }
   if (!input.similarTo) {
-    queryTerms = new Set(analyze(input.query ?? ''));
+    queryTerms = booleanQuery ? new Set(booleanQuery.stems) : new Set(analyze(input.query ?? ''));
   }
 
   let concept: Scored<number>[] = [];
   const conceptUsable = queryVector !== null && !isZero(queryVector);
   if (space && mode !== 'keyword') {
     if (!conceptUsable) {
-      notices.push(
-        input.similarTo
-          ? 'Nothing in this text is in the concept index, so there is nothing to compare.'
-          : 'No word of the query is in the concept index, so concept scores are empty.',
-      );
+      if (!booleanQuery || booleanQuery.text.trim() !== '')
+        notices.push(
+          input.similarTo
+            ? 'Nothing in this text is in the concept index, so there is nothing to compare.'
+            : 'No word of the query is in the concept index, so concept scores are empty.',
+        );
     } else {
       concept = conceptList(space, queryVector!, cap, {
         dims: mode === 'hybrid' ? DEFAULT_HYBRID.conceptDims : undefined,
         allow: mask,
         exclude,
-        minCosine: CONCEPT_MIN_COSINE,
+        // A Boolean query's hits are its match set, whatever their cosine.
+        minCosine: booleanQuery ? -Infinity : CONCEPT_MIN_COSINE,
       });
       if (excludeId !== null) concept = concept.filter((h) => h.id !== excludeId);
     }
   }
 
   let keyword: Scored<number>[] = [];
+  let keywordCoverage = 1;
   if (mode !== 'concept') {
-    const { terms } = keywordQueryTerms(input.query ?? '');
-    if (terms.length === 0) notices.push('The query has no searchable word.');
-    else {
-      const index = await ctx.keyword.indexFor(matterId);
+    let { terms } = keywordQueryTerms(input.query ?? '');
+    const index = await ctx.keyword.indexFor(matterId);
+    if (booleanQuery) terms = booleanQuery.rankTerms(index);
+    keywordCoverage = index.coverage(terms);
+    if (terms.length === 0) {
+      if (!booleanQuery) notices.push('The query has no searchable word.');
+    } else {
       const found = index.search(terms, {
         limit: cap,
         allow: allowIds ? new Set(allowIds) : undefined,
@@ -223,6 +241,11 @@ export async function rankResultSet(
     }
   }
 
+  if (booleanQuery) {
+    // Every satisfying document is a hit: those no list scored follow, in load order.
+    if (mode !== 'keyword') concept = booleanQuery.complete(concept, cap);
+    if (mode !== 'concept') keyword = booleanQuery.complete(keyword, cap);
+  }
   let ids: number[];
   let raw: number[];
   let bar: number[];
@@ -236,7 +259,17 @@ export async function rankResultSet(
     const top = raw.length > 0 ? raw[0] : 1;
     bar = raw.map((s) => (top > 0 ? Math.max(0, Math.min(1, s / top)) : 1));
   } else {
-    const fused = fuseScores(keyword, concept, DEFAULT_HYBRID.keywordWeight).slice(0, cap);
+    // Each list weighed by the share of the query's words it can see (fusion.ts).
+    const seen = knownTerms.length + unknownTerms.length;
+    const weight = coverageWeight(
+      DEFAULT_HYBRID.keywordWeight,
+      keywordCoverage,
+      seen > 0 ? knownTerms.length / seen : 0,
+    );
+    const fused = fuseScores(keyword, concept, weight, {
+      conceptCoverage: seen > 0 ? knownTerms.length / seen : 0,
+      outsideConcept: (id) => space?.indexOf(id) === undefined,
+    }).slice(0, cap);
     ids = fused.map((h) => h.id);
     raw = fused.map((h) => h.score);
     bar = raw.map((s) => Math.max(0, Math.min(1, s)));
@@ -303,5 +336,6 @@ export async function rankResultSet(
     queryVector: conceptUsable ? queryVector : null,
     queryTerms,
     nearest,
+    ...(mode === 'concept' && !booleanQuery ? { conceptCutoff: CONCEPT_MIN_COSINE } : {}),
   };
 }

@@ -11,13 +11,15 @@ import {
 import { recordAudit } from '../audit/record';
 import { appliedCodesOf } from '../codes/service';
 import type { AppContext } from '../context';
-import { topContributions } from './explain-hit';
+import { analyzeWithSurface, isStopWord } from '../engine/index';
+import { topContributionsOfWeighted } from './explain-hit';
+import { HitTextCache } from './hit-texts';
+import { Gate, SEARCHES_IN_FLIGHT } from './search-gate';
 import {
-  analyzedTerms,
   buildSnippet,
+  HIT_WINDOW_CHARS,
   collectSurfaces,
   surfaceOf,
-  termSpans,
   type MarkTerms,
 } from './highlight';
 import { documentsByIds, recentSearchEvents, sortedPage, textsByIds } from './queries';
@@ -30,6 +32,38 @@ export interface Actor {
 }
 
 const DEFAULT_SORT: SearchSort = { field: 'score', direction: 'desc' };
+
+/**
+ * Whether a term is worth showing as a reason or a refinement: not a number, not an
+ * English stop word, not a one- or two-letter token (common practice for term lists
+ * shown to people: such tokens carry little meaning on their own).
+ */
+export function isShownTerm(word: string): boolean {
+  const w = word.toLowerCase();
+  return [...w].length > 2 && !/^[\p{N}.,'’-]+$/u.test(w) && !isStopWord(w);
+}
+
+/** Stems of the query mapped back to the words as the person typed them. */
+function typedForms(query: string, stems: string[]): string[] {
+  const surfaceOf = new Map<string, string>();
+  for (const { term, surface } of analyzeWithSurface(query))
+    if (!surfaceOf.has(term)) surfaceOf.set(term, surface);
+  return stems.map((s) => surfaceOf.get(s) ?? s);
+}
+
+const gates = new WeakMap<AppContext, Gate>();
+function gateOf(ctx: AppContext): Gate {
+  let gate = gates.get(ctx);
+  if (!gate) gates.set(ctx, (gate = new Gate(SEARCHES_IN_FLIGHT)));
+  return gate;
+}
+
+const hitTextCaches = new WeakMap<AppContext, HitTextCache>();
+function hitTextsOf(ctx: AppContext): HitTextCache {
+  let cache = hitTextCaches.get(ctx);
+  if (!cache) hitTextCaches.set(ctx, (cache = new HitTextCache(HIT_WINDOW_CHARS)));
+  return cache;
+}
 const TOP_TERMS = 6;
 
 /** The page's document ids in the requested order. */
@@ -68,6 +102,7 @@ async function explainPage(
     textsByIds(
       ctx.db,
       ids.map((id) => ranked.duplicateOf[position.get(id)!] ?? id),
+      HIT_WINDOW_CHARS,
     ),
     appliedCodesOf(ctx.db, ids),
   ]);
@@ -76,22 +111,24 @@ async function explainPage(
   const space = ranked.space;
   const nearestSet = new Set(ranked.nearest.map((t) => t.term));
   const termDots = new Map<number, number>();
+  const hitTexts = hitTextsOf(ctx);
   const prepared = ids
     .filter((id) => docById.has(id))
     .map((id) => {
       const i = position.get(id)!;
       const sourceId = ranked.duplicateOf[i] ?? id;
       const t = textById.get(sourceId);
-      const body = t?.body ?? '';
-      const spans = termSpans(body);
+      const hitText = hitTexts.get(sourceId, t?.title ?? '', t?.body ?? '');
+      const body = hitText.body;
+      const spans = hitText.spans;
       let contributions: { term: string; weight: number }[] = [];
       const index = space?.indexOf(sourceId);
       if (space && ranked.mode !== 'keyword' && ranked.queryVector && index !== undefined) {
-        contributions = topContributions(
+        contributions = topContributionsOfWeighted(
           space,
           ranked.queryVector,
           index,
-          analyzedTerms(t?.title ?? '', body, spans),
+          hitText.weighted(space),
           TOP_TERMS,
           termDots,
         ).map((c) => ({ term: c.term, weight: c.contribution }));
@@ -107,7 +144,8 @@ async function explainPage(
           .slice(0, TOP_TERMS)
           .map(([term, n]) => ({ term, weight: n / total }));
       }
-      return { id, i, body, spans, contributions };
+      contributions = contributions.filter((c) => isShownTerm(c.term));
+      return { id, i, body, bodyLength: t?.body_length ?? 0, spans, contributions };
     });
   // Surface forms from the page's texts are only consulted for terms the index has no
   // label for (surfaceOf), so they are collected only when such a term is shown.
@@ -121,11 +159,10 @@ async function explainPage(
     prepared.some((p) => p.contributions.some((c) => !labelled(c.term)))
   )
     for (const p of prepared) collectSurfaces(p.spans, surfaces);
-  const nearestQueryTerms = ranked.nearest.map((t) => ({
-    term: surfaceOf(t.term, surfaces, space),
-    similarity: t.similarity,
-  }));
-  return prepared.map(({ id, i, body, spans, contributions }) => {
+  const nearestQueryTerms = ranked.nearest
+    .map((t) => ({ term: surfaceOf(t.term, surfaces, space), similarity: t.similarity }))
+    .filter((t) => isShownTerm(t.term));
+  return prepared.map(({ id, i, body, bodyLength, spans, contributions }) => {
     const doc = docById.get(id)!;
     // Concept marks: the query's nearest terms and the document's own contributing terms.
     const concept = new Set(nearestSet);
@@ -142,12 +179,11 @@ async function explainPage(
       rawScore: ranked.raw[i],
       rank: i + 1,
       codes: (codes.get(id) ?? []).map((c) => ({ id: c.id, name: c.name })),
-      snippet: buildSnippet(body, spans, marks),
+      snippet: buildSnippet(body, spans, marks, bodyLength),
       why: {
-        topTerms: contributions.map((c) => ({
-          term: surfaceOf(c.term, surfaces, space),
-          weight: c.weight,
-        })),
+        topTerms: contributions
+          .map((c) => ({ term: surfaceOf(c.term, surfaces, space), weight: c.weight }))
+          .filter((c) => isShownTerm(c.term)),
         nearestQueryTerms,
       },
       duplicateOf: ranked.duplicateOf[i],
@@ -157,7 +193,16 @@ async function explainPage(
 }
 
 /** POST .../search (and GET .../documents/:docId/similar): one page, audited as search.run. */
-export async function runSearch(
+export function runSearch(
+  ctx: AppContext,
+  matterId: number,
+  req: SearchParsedReq,
+  actor: Actor,
+): Promise<SearchResponse> {
+  return gateOf(ctx).run(() => searchNow(ctx, matterId, req, actor));
+}
+
+async function searchNow(
   ctx: AppContext,
   matterId: number,
   req: SearchParsedReq,
@@ -207,9 +252,14 @@ export async function runSearch(
     sort,
     hits,
     knownTerms: ranked.knownTerms,
-    unknownTerms: ranked.unknownTerms,
+    // As typed ("interaction"), not as the index's stems ("interact").
+    unknownTerms: typedForms(
+      req.query ?? (req.similarTo && 'passage' in req.similarTo ? req.similarTo.passage : ''),
+      ranked.unknownTerms,
+    ),
     ...(ranked.notices.length > 0 ? { notice: ranked.notices.join(' ') } : {}),
     indexVersion: ranked.indexVersion,
+    ...(ranked.conceptCutoff !== undefined ? { conceptCutoff: ranked.conceptCutoff } : {}),
   };
 }
 

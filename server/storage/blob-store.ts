@@ -8,6 +8,7 @@ import { link, mkdir, open, rename, rm, rmdir, stat, unlink } from 'node:fs/prom
 import path from 'node:path';
 import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
+import { PRIVATE_DIR_MODE, PRIVATE_FILE_MODE } from './file-modes';
 
 export interface StoredBlob {
   sha256: string;
@@ -66,7 +67,8 @@ export class BlobStore {
   private async store(
     write: (hasher: { stream: Transform; sink: NodeJS.WritableStream }) => Promise<void>,
   ): Promise<StoredBlob> {
-    await mkdir(this.incoming, { recursive: true });
+    // Owner-only: originals are the matter's documents (0700 folders, 0600 files).
+    await mkdir(this.incoming, { recursive: true, mode: PRIVATE_DIR_MODE });
     const temp = path.join(this.incoming, `${randomUUID()}.part`);
     const hash = createHash('sha256');
     let size = 0;
@@ -78,14 +80,17 @@ export class BlobStore {
       },
     });
     try {
-      await write({ stream, sink: createWriteStream(temp, { flags: 'wx' }) });
+      await write({
+        stream,
+        sink: createWriteStream(temp, { flags: 'wx', mode: PRIVATE_FILE_MODE }),
+      });
       // Flush to disk before the blob becomes visible under its final name.
       const handle = await open(temp, 'r');
       await handle.sync();
       await handle.close();
       const sha256 = hash.digest('hex');
       const final = this.pathOf(sha256);
-      await mkdir(path.dirname(final), { recursive: true });
+      await mkdir(path.dirname(final), { recursive: true, mode: PRIVATE_DIR_MODE });
       let created = true;
       try {
         // link() fails with EEXIST instead of replacing: an existing blob is never overwritten.

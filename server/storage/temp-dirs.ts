@@ -2,13 +2,14 @@
 // store so finished files can be moved in cheaply, and removed when the request is done.
 import { mkdir, mkdtemp, readdir, rm, stat } from 'node:fs/promises';
 import path from 'node:path';
+import { PRIVATE_DIR_MODE } from './file-modes';
 
 export const tempRoot = (dataDir: string) => path.join(path.resolve(dataDir), 'tmp');
 
 /** Creates a fresh folder <dataDir>/tmp/<label>-XXXXXX and returns its absolute path. */
 export async function makeTempDir(dataDir: string, label = 'upload'): Promise<string> {
   const root = tempRoot(dataDir);
-  await mkdir(root, { recursive: true });
+  await mkdir(root, { recursive: true, mode: PRIVATE_DIR_MODE });
   const safeLabel = label.replace(/[^a-zA-Z0-9_-]/g, '_').slice(0, 40) || 'tmp';
   return mkdtemp(path.join(root, `${safeLabel}-`));
 }

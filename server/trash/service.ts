@@ -263,16 +263,18 @@ const MERGE_STEP_PAGES = 32;
  * completion test), yielding to other requests between steps.
  */
 async function mergeFtsSegments(ctx: AppContext): Promise<void> {
-  const merge = ctx.sqlite.prepare(
-    "INSERT INTO documents_fts(documents_fts, rank) VALUES('merge', ?)",
-  );
-  const totalChanges = ctx.sqlite.prepare('SELECT total_changes()').pluck();
-  merge.run(-MERGE_STEP_PAGES);
-  for (;;) {
-    await new Promise((resolve) => setImmediate(resolve));
-    const before = totalChanges.get() as number;
-    merge.run(MERGE_STEP_PAGES);
-    if ((totalChanges.get() as number) - before < 2) return;
+  // Both full-text indexes over document_texts: stemmed, and words as written
+  // (migration 2026_12_04_1200_exact_words_index).
+  for (const table of ['documents_fts', 'documents_fts_exact']) {
+    const merge = ctx.sqlite.prepare(`INSERT INTO ${table}(${table}, rank) VALUES('merge', ?)`);
+    const totalChanges = ctx.sqlite.prepare('SELECT total_changes()').pluck();
+    merge.run(-MERGE_STEP_PAGES);
+    for (;;) {
+      await new Promise((resolve) => setImmediate(resolve));
+      const before = totalChanges.get() as number;
+      merge.run(MERGE_STEP_PAGES);
+      if ((totalChanges.get() as number) - before < 2) break;
+    }
   }
 }
 

@@ -31,7 +31,13 @@ export async function updatePasswordHash(
 ): Promise<void> {
   await db
     .updateTable('users')
-    .set({ password_hash: passwordHash, password_changed_at: new Date().toISOString() })
+    // A password the holder set themselves: no longer temporary.
+    .set({
+      password_hash: passwordHash,
+      password_changed_at: new Date().toISOString(),
+      password_must_change: 0,
+      password_expires_at: null,
+    })
     .where('id', '=', userId)
     .execute();
 }

@@ -22,6 +22,8 @@ export interface NewAccount {
   name: string;
   password: string;
   isAdmin?: boolean;
+  /** A temporary password a firm admin set: must be changed at first sign-in, expires then. */
+  temporaryUntil?: string;
 }
 
 /** Creates an account (Argon2id hash); 409 when the e-mail is taken. Returns the new row. */
@@ -39,6 +41,8 @@ export async function createAccount(db: Db, account: NewAccount): Promise<UserRo
     disabled_at: null,
     password_changed_at: now,
     created_at: now,
+    password_must_change: account.temporaryUntil ? 1 : 0,
+    password_expires_at: account.temporaryUntil ?? null,
   };
   await insertUser(db, row);
   return row;

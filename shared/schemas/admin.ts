@@ -5,7 +5,10 @@ import { emailSchema, newPasswordSchema, personNameSchema, text, type PersonRef 
  * POST /api/admin/users: a new account, either with a temporary password the admin hands
  * over, or (temporaryPassword omitted) with a one-time set-up link e-mailed to the person
  * (`${origin}/account-setup/<token>`, see shared/schemas/auth.ts), valid for the
- * invitation lifetime (7 days by default).
+ * invitation lifetime (7 days by default). A temporary password must pass the same
+ * quality rules as any new one (shared/password-policy.ts), must be changed at first
+ * sign-in (until then other routes answer 403 password_change_required) and stops
+ * working after QUARRY_TEMPORARY_PASSWORD_HOURS (72 by default).
  */
 export const createUserSchema = z.object({
   name: personNameSchema,

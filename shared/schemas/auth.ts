@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { PASSWORD_MAX_LENGTH } from '../limits';
+import { PASSWORD_SAME_AS_CURRENT } from '../password-policy';
 import type { FirmPermission, MatterPermission, MatterRole } from '../roles';
 import { emailSchema, newPasswordSchema, text } from './common';
 
@@ -11,10 +12,16 @@ export const signInSchema = z.object({
 export type SignInReq = z.infer<typeof signInSchema>;
 
 /** POST /api/auth/password. Ends every session of the user, then starts a new one for this browser. */
-export const changePasswordSchema = z.object({
-  currentPassword: text().min(1, 'is required').max(PASSWORD_MAX_LENGTH, 'is too long'),
-  newPassword: newPasswordSchema,
-});
+export const changePasswordSchema = z
+  .object({
+    currentPassword: text().min(1, 'is required').max(PASSWORD_MAX_LENGTH, 'is too long'),
+    newPassword: newPasswordSchema,
+  })
+  // The rest of the password rules need the dictionary: shared/password-policy.ts.
+  .refine((value) => value.newPassword !== value.currentPassword, {
+    path: ['newPassword'],
+    error: PASSWORD_SAME_AS_CURRENT,
+  });
 export type ChangePasswordReq = z.infer<typeof changePasswordSchema>;
 
 export interface ApiUser {
@@ -36,6 +43,11 @@ export interface MyMatter {
 /** GET /api/auth/me, and the body of a successful sign-in or password change. */
 export interface MeResponse {
   user: ApiUser;
+  /**
+   * A firm admin set this account's password: until it is changed (POST
+   * /api/auth/password) every other signed-in route answers 403 password_change_required.
+   */
+  passwordChangeRequired: boolean;
   firmPermissions: FirmPermission[];
   matters: MyMatter[];
 }

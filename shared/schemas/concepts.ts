@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { Job } from './jobs';
 import { idSchema, text, type PersonRef } from './common';
 
 // The concept space seen from outside (issue 6): spectrum, concept dimensions and their
@@ -289,6 +290,13 @@ export interface GroupingResponse {
   grouping: GroupingSummary;
   groups: ConceptGroup[];
 }
+
+/**
+ * POST .../concepts/groupings answers 200 with the grouping when one with these settings
+ * exists for the current version, else 202 with the background job computing it (the
+ * same job for the same settings); when the job has succeeded the same POST answers 200.
+ */
+export type CreateGroupingResponse = GroupingResponse | { job: Job };
 
 /** GET /api/matters/:matterId/concepts/groupings: the current version's groupings. */
 export interface GroupingsListResponse {

@@ -15,3 +15,13 @@ export interface DevMailResponse {
   fakeSmtp: boolean;
   messages: DevMailMessage[];
 }
+
+/**
+ * GET /api/instance (public): how this installation runs. In demo mode every screen says
+ * that the demo accounts' password is published. devMailbox: who may read GET
+ * /api/dev/mail ('anyone' only under `npm run dev`, 'firm-admins' in demo mode, 'off').
+ */
+export interface InstanceInfoResponse {
+  demoMode: boolean;
+  devMailbox: 'anyone' | 'firm-admins' | 'off';
+}

@@ -4,7 +4,12 @@ import { idSchema } from './common';
 // Background jobs (server/jobs): one row per job in the jobs table, polled by the client
 // for progress bars.
 
-export const JOB_KINDS = ['extract-batch', 'build-index'] as const;
+export const JOB_KINDS = [
+  'extract-batch',
+  'build-index',
+  'build-production',
+  'concept-grouping',
+] as const;
 export type JobKind = (typeof JOB_KINDS)[number];
 
 export const JOB_STATUSES = ['queued', 'running', 'succeeded', 'failed', 'cancelled'] as const;

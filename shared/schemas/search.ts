@@ -196,11 +196,16 @@ export interface SearchResponse {
   offset: number;
   sort: SearchSort;
   hits: SearchHit[];
-  /** Query terms the concept index knows / does not know (analysed forms). */
+  /** Query terms the concept index knows (analysed forms) / does not know (as typed). */
   knownTerms: string[];
   unknownTerms: string[];
   /** Plain-language notes: no known term, no index yet, result set capped, ... */
   notice?: string;
   /** Index version the concept part used; null for keyword-only. */
   indexVersion: number | null;
+  /**
+   * Set when the list is a concept ranking cut at a cosine (concept mode and "more like
+   * this", for plain words): the hits are the documents at or above it, not "matches".
+   */
+  conceptCutoff?: number;
 }

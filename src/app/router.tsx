@@ -21,6 +21,7 @@ import * as matterDocument from './routes/matter/documents-item';
 import * as matterDocuments from './routes/matter/documents';
 import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
+import * as matterProductions from './routes/matter/productions';
 import * as matterReview from './routes/matter/review';
 import * as matterBatches from './routes/matter/batches';
 import * as matterQc from './routes/matter/qc';
@@ -91,6 +92,7 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterSearch.clientLoader(queryClient),
               Component: matterSearch.SearchRoute,
             },
+            { path: 'search/term-report', Component: matterSearch.TermReportRoute },
             {
               path: 'review/:docId',
               loader: matterReview.clientLoader(queryClient),
@@ -157,6 +159,7 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterTrash.clientLoader(queryClient),
               Component: matterTrash.TrashRoute,
             },
+            { path: 'productions', Component: matterProductions.ProductionsRoute },
           ],
         },
         { path: 'account', Component: account.AccountRoute },

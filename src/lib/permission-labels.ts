@@ -25,4 +25,6 @@ export const PERMISSION_LABELS: Record<MatterPermission, string> = {
   'holds.manage': 'Set and release legal holds',
   'documents.restore': 'Restore deleted documents from the trash',
   'documents.purge': 'Destroy deleted documents for good',
+  'documents.redact': 'Mark redactions',
+  'productions.manage': 'Build and download productions',
 };

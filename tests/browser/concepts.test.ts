@@ -138,7 +138,8 @@ describeBrowser('concept space: spectrum, rebuild with another k, document map',
     await p.getByTestId('concepts-tab-groups').click();
     await p.getByTestId('groups-count').fill('6');
     await p.getByTestId('groups-run').click();
-    await expect.poll(() => p.getByTestId('group-row').count()).toBe(6);
+    // The grouping is a background job the page polls (a worker thread runs k-means).
+    await expect.poll(() => p.getByTestId('group-row').count(), { timeout: 30_000 }).toBe(6);
     await p.screenshot({ path: join(ARTIFACTS_DIR, 'concepts-groups.png') });
 
     // The map draws every document of the serving version.

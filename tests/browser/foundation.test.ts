@@ -72,9 +72,13 @@ describeBrowser('foundation: invite a reviewer end to end', () => {
       await p.getByText(`Invitation sent to ${NEW_REVIEWER.email}`).waitFor();
       await p.getByTestId(`invitation-row-${NEW_REVIEWER.email}`).waitFor();
 
-      // 3. The lead signs out; the invitee reads the mail on the demo mailbox page.
+      // 3. The lead signs out. Signed out, the demo mailbox is closed (its links are
+      // credentials); the firm admin reads it and hands the link over.
       await p.getByTestId('sign-out').click();
       await p.waitForURL(/\/sign-in/);
+      await p.goto(`${quarry.baseUrl}/dev/mail`);
+      await p.getByText('Firm administrators only').waitFor();
+      await signIn(p, quarry.baseUrl, 'admin@quarry.example');
       await p.goto(`${quarry.baseUrl}/dev/mail`);
       const message = p
         .getByTestId('dev-mail-message')
@@ -89,8 +93,11 @@ describeBrowser('foundation: invite a reviewer end to end', () => {
       expect(href).toMatch(new RegExp(`^${quarry.baseUrl}/invitations/[A-Za-z0-9_-]{43}$`));
       await p.screenshot({ path: join(ARTIFACTS_DIR, 'dev-mail.png'), fullPage: true });
 
-      // 4. Follow the link and accept by creating the account.
-      await link.click();
+      // 4. Signed out again, follow the link and accept by creating the account.
+      await p.goto(`${quarry.baseUrl}/matters`);
+      await p.getByTestId('sign-out').click();
+      await p.waitForURL(/\/sign-in/);
+      await p.goto(href!);
       await p.getByTestId('invitation-page').waitFor();
       await p.screenshot({ path: join(ARTIFACTS_DIR, 'invitation.png'), fullPage: true });
       await p.getByLabel('Your name').fill(NEW_REVIEWER.name);

@@ -113,4 +113,57 @@ describeBrowser('search: concept search finds what keyword search misses', () =>
     expect(await p.getByTestId('review-caution').isVisible()).toBe(true);
     await p.screenshot({ path: join(ARTIFACTS_DIR, 'review-viewer.png'), fullPage: false });
   }, 360_000);
+
+  it('a phrase query lists only the phrase; a malformed one is flagged in the box; a term report runs and downloads', async () => {
+    screenshotOnFailure(() => page, 'search-phrase-and-term-report');
+    page = await browser.context.newPage();
+    const p = page;
+    const matterId = quarry.seeded.matterId;
+    // The context is signed in already (the first test).
+
+    await p.goto(`${quarry.baseUrl}/matters/${matterId}/search`);
+    await p.getByTestId('search-page').waitFor();
+    await p.getByTestId('mode-keyword').check();
+    const total = async () =>
+      Number((await p.getByTestId('search-total').textContent())?.replace(/\D/g, ''));
+
+    // Plain words (any word), then the phrase (the words in sequence): a subset.
+    await p.getByTestId('search-query').fill('loyalty credit');
+    await p.getByTestId('search-query').press('Enter');
+    await waitForMode(p, 'Keyword');
+    const anyWord = await total();
+    await p.getByTestId('search-query').fill('"loyalty credit"');
+    await p.getByTestId('search-query').press('Enter');
+    await expect.poll(total).not.toBe(anyWord);
+    const phrase = await total();
+    expect(phrase).toBeGreaterThan(0);
+    expect(phrase).toBeLessThan(anyWord);
+    // Shift+Enter adds a line instead of running.
+    await p.getByTestId('search-query').press('Shift+Enter');
+    expect(await p.getByTestId('search-query').inputValue()).toBe('"loyalty credit"\n');
+
+    // An unclosed quote: the message and its position under the box, not a failed search.
+    await p.getByTestId('search-query').fill('"loyalty credit');
+    await p.getByTestId('search-query').press('Enter');
+    await p.getByTestId('search-query-error').waitFor();
+    expect(await p.getByTestId('search-query-error').textContent()).toMatch(
+      /Unclosed quote.*at character 1/,
+    );
+
+    // The term report: two terms and a malformed one.
+    await p.getByTestId('open-term-report').click();
+    await p.getByTestId('term-report-page').waitFor();
+    await p
+      .getByTestId('term-report-terms')
+      .fill('"loyalty credit"\nloyalty AND credit\ncolour:red');
+    await p.getByTestId('term-report-run').click();
+    await p.getByTestId('term-report-table').waitFor();
+    const rows = p.getByTestId('term-report-row');
+    expect(await rows.count()).toBe(3);
+    expect(await rows.nth(0).textContent()).toContain(String(phrase));
+    expect(await p.getByTestId('term-report-error').textContent()).toMatch(/Unknown field/);
+    const download = p.waitForEvent('download');
+    await p.getByTestId('term-report-download').click();
+    expect((await download).suggestedFilename()).toMatch(/search-term-report-.*\.csv$/);
+  }, 120_000);
 });

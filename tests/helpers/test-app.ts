@@ -40,12 +40,16 @@ export interface TestAppOptions extends AppOptions {
   env?: Record<string, string>;
   /** Direct config overrides, applied after the environment. */
   config?: Partial<Config>;
+  /** An existing data folder to open again (a restart); close() then leaves it in place. */
+  dataDir?: string;
 }
 
 export interface TestApp {
   ctx: AppContext;
   app: Express;
   server: Server;
+  /** The data folder (database, blobs). */
+  dataDir: string;
   /** http://127.0.0.1:<port>; also the Origin header agents send. */
   baseUrl: string;
   /** The local fake SMTP server's mailbox. */
@@ -89,7 +93,7 @@ const nextSeq = () => `${process.pid}-${++sequence}`;
  * 127.0.0.1 and a random port, with the fake SMTP server. Call close() in afterAll.
  */
 export async function createTestApp(options: TestAppOptions = {}): Promise<TestApp> {
-  const dataDir = mkdtempSync(join(tmpdir(), 'quarry-test-'));
+  const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'quarry-test-'));
   const config: Config = {
     ...loadConfig({ QUARRY_DATA_DIR: dataDir, QUARRY_LOG_LEVEL: 'silent', ...options.env }),
     ...options.config,
@@ -112,6 +116,7 @@ export async function createTestApp(options: TestAppOptions = {}): Promise<TestA
     ctx,
     app,
     server,
+    dataDir,
     baseUrl,
     mail: ctx.mail.fake,
     agent,
@@ -185,7 +190,7 @@ export async function createTestApp(options: TestAppOptions = {}): Promise<TestA
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await ctx.close();
-      rmSync(dataDir, { recursive: true, force: true });
+      if (!options.dataDir) rmSync(dataDir, { recursive: true, force: true });
     },
   };
   return testApp;

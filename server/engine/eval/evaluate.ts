@@ -1,14 +1,13 @@
-// Runs a test collection through the engine: one build (concept space and/or an
-// in-memory FTS5 database shaped like the server's), then every judged query in
-// the chosen mode, scored with server/engine/eval/metrics.ts.
-import SQLite from 'better-sqlite3';
+// Runs a test collection through the engine: one build (concept space and/or the
+// in-memory keyword index the server searches with, keyword-index.ts), then every judged
+// query in the chosen mode, scored with server/engine/eval/metrics.ts.
 import {
   ConceptSpace,
   type BuildDiagnostics,
   type ConceptSpaceOptions,
   type DocId,
 } from '../index/concept-space';
-import { KEYWORD_TABLES_DDL, keywordSearch, type KeywordSearchOptions } from '../search/keyword';
+import { KeywordIndex, keywordQueryTerms } from '../search/keyword-index';
 import { search, type KeywordSource, type SearchMode, type SearchOptions } from '../search/search';
 import {
   evaluateRanking,
@@ -30,7 +29,8 @@ export interface PreparedCollection {
 export interface PrepareOptions extends ConceptSpaceOptions {
   /** Which parts to build: 'concept' (space), 'keyword' (FTS5), or both (default). */
   parts?: ('concept' | 'keyword')[];
-  keywordOptions?: Omit<KeywordSearchOptions, 'limit' | 'matterId'>;
+  /** Okapi's k3 for repeated query words (keyword-index.ts DEFAULT_K3 when unset). */
+  k3?: number;
 }
 
 export function partsFor(mode: SearchMode): ('concept' | 'keyword')[] {
@@ -55,30 +55,28 @@ export function prepareCollection(
       options,
     ));
   }
-  let db: SQLite.Database | null = null;
   let keyword: KeywordSource | null = null;
   if (parts.includes('keyword')) {
     if (docs.length === 0) throw new RangeError('empty corpus: there are no documents to index');
-    const handle = new SQLite(':memory:');
-    db = handle;
-    for (const ddl of KEYWORD_TABLES_DDL) handle.exec(ddl);
-    const insert = handle.prepare(
-      'INSERT INTO document_texts (document_id, title, body) VALUES (?, ?, ?)',
-    );
-    handle.transaction(() => docs.forEach((d, i) => insert.run(i + 1, d.title, d.text)))();
+    // The index the server's keyword search uses (server/search/keyword-cache.ts), so the
+    // measured keyword figures are the product's.
+    const index = new KeywordIndex();
+    docs.forEach((d, i) => index.add(i + 1, d.title, d.text));
+    index.compact();
     const ids = docs.map((d) => d.id);
-    keyword = (query, limit) =>
-      keywordSearch(handle, query, { ...options.keywordOptions, limit }).map((h) => ({
-        id: ids[h.documentId - 1] as DocId,
-        score: h.score,
-      }));
+    const source: KeywordSource = (query, limit) => {
+      const found = index.search(keywordQueryTerms(query).terms, { limit, k3: options.k3 });
+      return found.ids.map((slot, r) => ({ id: ids[slot - 1] as DocId, score: found.scores[r] }));
+    };
+    source.coverage = (query) => index.coverage(keywordQueryTerms(query).terms);
+    keyword = source;
   }
   return {
     space,
     diagnostics,
     keyword,
     buildMs: performance.now() - started,
-    close: () => db?.close(),
+    close: () => {},
   };
 }
 

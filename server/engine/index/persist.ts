@@ -15,7 +15,7 @@
 // BLOBs are copied byte-wise into preallocated typed arrays (a byte copy also
 // sidesteps Buffer alignment).
 import type { Generated, Kysely } from 'kysely';
-import { ANALYZER_VERSION } from '../text/analyzer';
+import { ANALYZER_VERSION, COMPATIBLE_ANALYZER_VERSIONS } from '../text/analyzer';
 import {
   ConceptSpace,
   type BuildDiagnostics,
@@ -345,7 +345,7 @@ export async function loadConceptSpace(
       `index version ${indexId}: format ${String(params.formatVersion)} is not ${INDEX_FORMAT_VERSION}; rebuild it`,
     );
   }
-  if (params.analyzer !== ANALYZER_VERSION) {
+  if (!COMPATIBLE_ANALYZER_VERSIONS.includes(params.analyzer)) {
     throw new Error(
       `index version ${indexId}: built with analyzer ${params.analyzer}, this engine has ${ANALYZER_VERSION}; rebuild it`,
     );

@@ -7,18 +7,34 @@
 //    lower-cased and, with remove_diacritics 2, stripped of diacritics.
 //  - porter: tokens of 3 to 64 bytes are Porter-stemmed (Porter 1980); shorter or
 //    longer ones pass through unchanged.
+//  - a token is stored (and queried) as its first 32,768 bytes (FTS5_MAX_TOKEN_SIZE;
+//    ../text/token-limits.ts).
 // Checked against FTS5 itself (fts5vocab) on Cranfield in keyword-index.test.ts.
 // JavaScript's Unicode tables are newer than FTS5's (Unicode 6.1), so a character
 // added to Unicode since then may split tokens differently.
 import PorterStemmer from 'natural/lib/natural/stemmers/porter_stemmer';
+import { capToken, PORTER_MAX_BYTES, TOKEN_MAX_BYTES } from '../text/token-limits';
 
 const ASCII_TOKEN = /^[\x21-\x7e]*$/;
 const LATIN_MARKS = /(\p{Script=Latin})\p{M}+/gu;
 const PORTER_MIN_BYTES = 3;
-const PORTER_MAX_BYTES = 64;
 
-/** A token folded as unicode61 with remove_diacritics 2 folds it. */
+/** A token folded as unicode61 with remove_diacritics 2 folds it, cut at 32,768 bytes. */
 function fold(token: string): string {
+  // Folding never needs more than the first FOLD_WINDOW code units of a giant token to
+  // fill the 32,768 bytes kept (unless nearly every character carries several marks).
+  if (token.length > FOLD_WINDOW) {
+    let end = FOLD_WINDOW;
+    const c = token.charCodeAt(end);
+    if (c >= 0xdc00 && c <= 0xdfff) end--;
+    token = token.slice(0, end);
+  }
+  return capToken(foldWhole(token));
+}
+
+const FOLD_WINDOW = 8 * TOKEN_MAX_BYTES;
+
+function foldWhole(token: string): string {
   if (ASCII_TOKEN.test(token)) return token.toLowerCase();
   // Character by character: unicode61 folds without context (Σ is σ, never final ς),
   // and removes diacritics from Latin letters only.
@@ -61,6 +77,7 @@ function stemWithStandIns(token: string): string {
 
 /** The Porter stem of one folded token, or the token itself outside 3-64 bytes. */
 export function porterStem(token: string): string {
+  if (token.length > PORTER_MAX_BYTES) return token;
   const bytes = token.length < PORTER_MIN_BYTES ? token.length : utf8Length(token);
   if (bytes < PORTER_MIN_BYTES || bytes > PORTER_MAX_BYTES) return token;
   return ASCII_TOKEN.test(token) ? PorterStemmer.stem(token) : stemWithStandIns(token);

@@ -70,10 +70,14 @@ describe.skipIf(!available)('KeywordIndex against SQLite FTS5 on Cranfield', () 
     );
     let worst = 0;
     for (const q of cranfield.queries) {
-      const { words, terms } = keywordQueryTerms(q.text);
+      const { terms } = keywordQueryTerms(q.text);
+      const repeated = keywordQueryTerms(q.text).terms.length;
+      const words = ftsRawTokens(q.text).filter((w) => keywordQueryTerms(q.text).words.includes(w));
+      expect(words.length).toBe(repeated);
       const match = words.map((w) => `"${w}"`).join(' OR ');
       const reference = statement.all(match) as { rowid: number; score: number }[];
-      const ours = index.search(terms, { limit: 5000 });
+      // Every repetition as its own phrase in FTS5: the oracle for k3 -> infinity.
+      const ours = index.search(terms, { limit: 5000, k3: Infinity });
       expect(ours.total, `query ${q.id}`).toBe(reference.length);
       const refScore = new Map(reference.map((r) => [r.rowid, r.score]));
       ours.ids.forEach((id, r) => {
@@ -87,6 +91,42 @@ describe.skipIf(!available)('KeywordIndex against SQLite FTS5 on Cranfield', () 
       expect(ours.ids.slice(0, 10)).toEqual(reference.slice(0, 10).map((r) => r.rowid));
     }
     expect(worst).toBeLessThan(1e-12);
+  });
+
+  it('a repeated query word weighs (k3 + 1) qtf / (k3 + qtf) (Okapi at TREC-3); FTS5 is the k3 -> infinity oracle', () => {
+    const fts = db.prepare(
+      `SELECT rowid, -bm25(documents_fts) AS score FROM documents_fts
+        WHERE documents_fts MATCH ? ORDER BY rowid`,
+    );
+    // A pasted paragraph saying "pressure" four times and "flow" once.
+    const text = 'pressure flow pressure pressure pressure';
+    const { terms } = keywordQueryTerms(text);
+    expect(terms).toEqual(['pressur', 'flow', 'pressur', 'pressur', 'pressur']);
+    const reference = fts.all('"pressure" OR "flow" OR "pressure" OR "pressure" OR "pressure"') as {
+      rowid: number;
+      score: number;
+    }[];
+    const infinite = index.search(terms, { limit: 5000, k3: Infinity });
+    const byId = new Map(infinite.ids.map((id, i) => [id, infinite.scores[i]]));
+    expect(infinite.total).toBe(reference.length);
+    for (const r of reference) expect(byId.get(r.rowid)! / r.score).toBeCloseTo(1, 12);
+    // Finite k3: the per-word parts, re-weighted by hand.
+    const once = (term: string) => {
+      const hit = index.search([term], { limit: 5000 });
+      return new Map(hit.ids.map((id, i) => [id, hit.scores[i]]));
+    };
+    const pressure = once('pressur');
+    const flow = once('flow');
+    for (const k3 of [0, 1.5, 7, 1000]) {
+      const w = ((k3 + 1) * 4) / (k3 + 4);
+      const found = index.search(terms, { limit: 5000, k3 });
+      found.ids.forEach((id, i) =>
+        expect(found.scores[i]).toBeCloseTo(w * (pressure.get(id) ?? 0) + (flow.get(id) ?? 0), 10),
+      );
+    }
+    // k3 = 0 ignores repetition: the same as saying each word once.
+    const plain = index.search(['pressur', 'flow'], { limit: 5000 });
+    expect(index.search(terms, { limit: 5000, k3: 0 }).scores).toEqual(plain.scores);
   });
 
   it('keeps the statistics right when documents are removed and added back', () => {
@@ -204,5 +244,57 @@ describe('fts5 tokens', () => {
 
   it('raw tokens are folded but not stemmed', () => {
     expect(ftsRawTokens('Running CAFÉS')).toEqual(['running', 'cafes']);
+  });
+});
+
+describe('long tokens, as FTS5 treats them', () => {
+  // SQLite FTS5 itself is the reference: its porter tokenizer leaves tokens over 64 bytes
+  // unstemmed, and it keeps the first 32,768 bytes of a token (FTS5_MAX_TOKEN_SIZE).
+  const long = [
+    { title: '', body: `${'a'.repeat(53)}connections and ${'a'.repeat(54)}connections` },
+    { title: 'S'.repeat(8 * 1024 * 1024), body: 'subject line only' },
+    { title: '', body: `${'1'.repeat(100_000)} digits` },
+    { title: '', body: `${'é'.repeat(20_000)} ${'Ω'.repeat(17_000)}` },
+  ];
+
+  // A term shown by its head and length, so a failure prints a readable difference.
+  const brief = (terms: string[]) =>
+    terms.map((t) => (t.length > 70 ? `${t.slice(0, 12)}…(${t.length} chars)` : t)).sort();
+
+  it('stems, cuts and counts them into the terms FTS5 indexes', () => {
+    const db = ftsDatabase(long.map((d, i) => ({ rowid: i + 1, ...d })));
+    const fts = db.prepare('SELECT doc, term FROM temp.fts_instances').all() as {
+      doc: number;
+      term: string;
+    }[];
+    long.forEach((d, i) =>
+      expect(brief([...ftsTokens(d.title), ...ftsTokens(d.body)]), `document ${i + 1}`).toEqual(
+        brief(fts.filter((r) => r.doc === i + 1).map((r) => r.term)),
+      ),
+    );
+    db.close();
+  });
+
+  it('matches and scores a giant query token as FTS5 does', () => {
+    const docs = long.map((d, i) => ({ rowid: i + 1, ...d }));
+    const db = ftsDatabase(docs);
+    const index = new KeywordIndex();
+    for (const d of docs) index.add(d.rowid, d.title, d.body);
+    const statement = db.prepare(
+      `SELECT rowid, -bm25(documents_fts) AS score FROM documents_fts
+        WHERE documents_fts MATCH ? ORDER BY bm25(documents_fts), rowid`,
+    );
+    for (const query of ['S'.repeat(40_000), '1'.repeat(33_000), `${'a'.repeat(54)}connections`]) {
+      const { words, terms } = keywordQueryTerms(query);
+      const reference = statement.all(words.map((w) => `"${w}"`).join(' OR ')) as {
+        rowid: number;
+        score: number;
+      }[];
+      expect(reference.length).toBe(1);
+      const ours = index.search(terms, { limit: 10 });
+      expect(ours.ids, brief(words).join(' ')).toEqual(reference.map((r) => r.rowid));
+      expect(ours.scores[0]).toBeCloseTo(reference[0].score, 12);
+    }
+    db.close();
   });
 });

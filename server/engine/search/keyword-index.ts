@@ -7,7 +7,11 @@
 //   IDF(p)   = ln((N - n(p) + 0.5) / (n(p) + 0.5)), or 1e-6 where that is not positive
 //
 // with k1 = 1.2, b = 0.75, f the count of p in the document's title and body, |D| the
-// document's token count and n(p) the number of documents holding p. FTS5 computes
+// document's token count and n(p) the number of documents holding p. A word the query
+// says qtf times weighs (k3 + 1) qtf / (k3 + qtf), Okapi BM25's query-term weight
+// (Robertson, Walker, Jones, Hancock-Beaulieu & Gatford 1994, "Okapi at TREC-3"); FTS5
+// itself sums a repeated phrase once per repetition, which is the limit k3 -> infinity
+// (checked in keyword-index.test.ts). FTS5 computes
 // bm25 by walking every matching row's position lists, which at 100,000 documents and
 // a pasted paragraph takes 150-300 ms; summing postings here takes a few.
 //
@@ -23,6 +27,15 @@ const B = 0.75;
 const MIN_IDF = 1e-6;
 const TF_MAX = 0xffff;
 const SURFACE_CACHE_LIMIT = 1_000_000;
+/**
+ * Okapi's k3. Robertson et al. (1994) used k3 from 0 (repeats ignored) up to 1000 (close
+ * to counting each repeat in full; values from memory of the paper). 2 weighs a word said
+ * four times at twice a word said once: a pasted paragraph's repeats count, yet one
+ * repeated word does not take over the query. Measured through this index on Cranfield
+ * (docs/RETRIEVAL.md): keyword MAP 0.3121 at k3 = 0, 0.3132 at 2, 0.3110 at 7.
+ */
+export const DEFAULT_K3 = 2;
+const SURFACE_KEY_MAX = 256;
 
 /**
  * The query phrases of a user's text, as toFtsMatchExpression (keyword.ts) builds its
@@ -31,10 +44,14 @@ const SURFACE_CACHE_LIMIT = 1_000_000;
  * reference FTS5 MATCH quotes), `terms` their stems (what the index holds).
  */
 export function keywordQueryTerms(text: string): { words: string[]; terms: string[] } {
-  const tokens = [...new Set(ftsRawTokens(text))];
+  const all = ftsRawTokens(text);
+  const tokens = [...new Set(all)];
   const content = tokens.filter((t) => !isStopWord(t));
   const words = (content.length > 0 ? content : tokens).slice(0, MAX_MATCH_TOKENS);
-  return { words, terms: words.map(porterStem) };
+  // Each kept word once per time the query says it (its qtf, for the query-term weight).
+  const kept = new Set(words);
+  const repeated = all.filter((t) => kept.has(t));
+  return { words, terms: repeated.map(porterStem) };
 }
 
 // A term's postings: a compact typed part, plus a tail of plain arrays that new
@@ -117,6 +134,37 @@ export class KeywordIndex {
     return id;
   }
 
+  /** Share of the distinct terms that some live document holds (what the query can find). */
+  coverage(terms: readonly string[]): number {
+    const distinct = [...new Set(terms)];
+    if (distinct.length === 0) return 0;
+    let held = 0;
+    for (const term of distinct) {
+      const id = this.termIds.get(term);
+      if (id === undefined) continue;
+      const p = this.postings[id];
+      if (
+        p.slots.some((slot) => this.alive[slot] === 1) ||
+        p.tailSlots.some((slot) => this.alive[slot] === 1)
+      )
+        held++;
+    }
+    return held / distinct.length;
+  }
+
+  /** Indexed terms (stems) that start with `prefix`, at most `max` (for wildcard ranking). */
+  termsStartingWith(prefix: string, max: number): string[] {
+    const out: string[] = [];
+    if (prefix.length === 0) return out;
+    for (const term of this.termIds.keys()) {
+      if (term.startsWith(prefix)) {
+        out.push(term);
+        if (out.length >= max) break;
+      }
+    }
+    return out;
+  }
+
   get size(): number {
     return this.nAlive;
   }
@@ -145,7 +193,8 @@ export class KeywordIndex {
         const term = ftsTerm(surface);
         id = term.length === 0 ? -1 : this.termIdOf(term);
         if (surfaces.size >= SURFACE_CACHE_LIMIT) surfaces.clear();
-        surfaces.set(surface, id);
+        // A giant token (a run of one character) is not worth keeping as a key.
+        if (surface.length <= SURFACE_KEY_MAX) surfaces.set(surface, id);
       }
       if (id < 0) return;
       length++;
@@ -191,22 +240,31 @@ export class KeywordIndex {
   }
 
   /**
-   * bm25 over the documents holding any of `terms` (stems; each entry is one query
-   * phrase, so a repeated stem counts again, as FTS5 counts each phrase). `allow`
+   * bm25 over the documents holding any of `terms` (stems; a stem listed qtf times is
+   * weighed (k3 + 1) qtf / (k3 + qtf); k3 = Infinity counts each repetition in full, as
+   * FTS5 counts each repeated phrase). `allow`
    * restricts the documents (by id) without changing the statistics; `limit` caps the
    * list returned, `total` counts every match.
    */
-  search(terms: readonly string[], options: { limit: number; allow?: Set<number> }): KeywordResult {
+  search(
+    terms: readonly string[],
+    options: { limit: number; allow?: Set<number>; k3?: number },
+  ): KeywordResult {
     const nRow = this.nAlive;
     if (nRow === 0 || terms.length === 0) return { ids: [], scores: [], total: 0 };
+    const k3 = options.k3 ?? DEFAULT_K3;
+    if (!(k3 >= 0)) throw new RangeError('k3 must be 0 or more');
+    const qtf = new Map<string, number>();
+    for (const term of terms) qtf.set(term, (qtf.get(term) ?? 0) + 1);
     const avgdl = this.totalTokens / nRow;
     const scores = new Float64Array(this.nSlots);
     const touched = new Uint8Array(this.nSlots);
     const matched = this.scratch;
     matched.length = 0;
-    for (const term of terms) {
+    for (const [term, count] of qtf) {
       const id = this.termIds.get(term);
       if (id === undefined) continue;
+      const queryWeight = k3 === Infinity ? count : ((k3 + 1) * count) / (k3 + count);
       const p = this.postings[id];
       let hits = 0;
       for (let i = 0; i < p.slots.length; i++) hits += this.alive[p.slots[i]];
@@ -214,6 +272,7 @@ export class KeywordIndex {
       if (hits === 0) continue;
       let idf = Math.log((nRow - hits + 0.5) / (hits + 0.5));
       if (idf <= 0) idf = MIN_IDF;
+      idf *= queryWeight;
       const score = (slot: number, stored: number) => {
         if (this.alive[slot] === 0) return;
         const f = stored === TF_MAX ? (this.bigTf.get(id * 2 ** 32 + slot) ?? stored) : stored;

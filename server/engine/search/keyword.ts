@@ -20,6 +20,15 @@ export const KEYWORD_TABLES_DDL = [
   `CREATE TRIGGER document_texts_ai AFTER INSERT ON document_texts BEGIN
      INSERT INTO documents_fts(rowid, title, body) VALUES (new.document_id, new.title, new.body);
    END`,
+  // Words as written (migrations/2026_12_04_1200_exact_words_index.ts).
+  `CREATE VIRTUAL TABLE documents_fts_exact USING fts5(
+     title, body,
+     content='document_texts', content_rowid='document_id',
+     tokenize='unicode61 remove_diacritics 2', prefix='2 3'
+   )`,
+  `CREATE TRIGGER document_texts_exact_ai AFTER INSERT ON document_texts BEGIN
+     INSERT INTO documents_fts_exact(rowid, title, body) VALUES (new.document_id, new.title, new.body);
+   END`,
 ];
 
 /** At most this many distinct tokens go into one MATCH expression (bounds query cost). */

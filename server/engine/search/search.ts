@@ -7,7 +7,7 @@
 //             `conceptDims` axes of the same SVD, a small-k LSI score as in
 //             Kontostathis (2007). Weights tuned on Cranfield: docs/RETRIEVAL.md.
 import type { ConceptSpace, DocId } from '../index/concept-space';
-import { fuseScores, type Scored } from './fusion';
+import { coverageWeight, fuseScores, type Scored } from './fusion';
 import { topCosine } from './top-n';
 
 export type SearchMode = 'concept' | 'keyword' | 'hybrid';
@@ -16,7 +16,10 @@ export const SEARCH_MODES: readonly SearchMode[] = ['concept', 'keyword', 'hybri
 /** Tuned on Cranfield (docs/RETRIEVAL.md). */
 export const DEFAULT_HYBRID = { keywordWeight: 0.3, conceptDims: 100 };
 
-export type KeywordSource = (query: string, limit: number) => Scored<DocId>[];
+export type KeywordSource = ((query: string, limit: number) => Scored<DocId>[]) & {
+  /** Share of the query's words the keyword index holds (1 when not given). */
+  coverage?: (query: string) => number;
+};
 
 export interface SearchOptions {
   mode: SearchMode;
@@ -145,8 +148,17 @@ export function search(
   } else if (mode === 'keyword') {
     hits = keyword.map((h) => ({ id: h.id, score: h.score, concept: null, keyword: h.score }));
   } else {
-    const w = options.hybrid?.keywordWeight ?? DEFAULT_HYBRID.keywordWeight;
-    hits = fuseScores(keyword, concept, w).map((h) => ({
+    const base = options.hybrid?.keywordWeight ?? DEFAULT_HYBRID.keywordWeight;
+    const seen = known.length + unknown.length;
+    const w = coverageWeight(
+      base,
+      options.keyword?.coverage?.(query) ?? 1,
+      seen > 0 ? known.length / seen : 0,
+    );
+    hits = fuseScores(keyword, concept, w, {
+      conceptCoverage: seen > 0 ? known.length / seen : 0,
+      outsideConcept: (id) => space?.indexOf(id) === undefined,
+    }).map((h) => ({
       id: h.id,
       score: h.score,
       concept: h.concept,

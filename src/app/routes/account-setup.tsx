@@ -11,6 +11,7 @@ import {
   describeError,
 } from '@/components/ui';
 import { useCompleteAccountSetup } from '@/features/account-setup/api/complete-account-setup';
+import { checkNewPassword } from '@/features/auth/new-password-check';
 import {
   type AccountSetupPreviewResponse,
   useAccountSetup,
@@ -102,14 +103,12 @@ function ChoosePasswordForm({
   const [passwordProblem, setPasswordProblem] = useState<string | null>(null);
   const [repeatProblem, setRepeatProblem] = useState<string | null>(null);
 
-  function submit(event: FormEvent) {
+  async function submit(event: FormEvent) {
     event.preventDefault();
-    const tooShort = password.length < PASSWORD_MIN_LENGTH;
-    setPasswordProblem(
-      tooShort ? `Use at least ${PASSWORD_MIN_LENGTH} characters for the password.` : null,
-    );
-    setRepeatProblem(!tooShort && password !== repeat ? 'The two passwords differ.' : null);
-    if (tooShort || password !== repeat) return;
+    const problem = await checkNewPassword(password, { email: setup.email, name: setup.name });
+    setPasswordProblem(problem);
+    setRepeatProblem(!problem && password !== repeat ? 'The two passwords differ.' : null);
+    if (problem || password !== repeat) return;
     complete.mutate(
       { password },
       { onSuccess: () => void navigate('/matters', { replace: true }) },
@@ -133,7 +132,7 @@ function ChoosePasswordForm({
         {formatDateTime(setup.expiresAt)}.
       </p>
       <form
-        onSubmit={submit}
+        onSubmit={(event) => void submit(event)}
         className="mt-5 space-y-4 rounded-lg border border-line bg-panel p-5"
         noValidate
         data-testid="account-setup-form"

@@ -11,12 +11,19 @@ import {
 import { useChangePassword } from '@/features/auth/api/change-password';
 import { useMe } from '@/features/auth/api/get-me';
 import { fieldErrorOf, isApiError } from '@/lib/api-client';
+import { checkNewPassword } from '@/features/auth/new-password-check';
 
 export function AccountRoute() {
   const me = useMe();
   return (
     <main className="mx-auto max-w-[88rem] px-4 py-6">
       <PageHeader title="My account" />
+      {me.data?.passwordChangeRequired ? (
+        <Notice tone="warn" title="Choose your own password" className="mb-4 max-w-4xl">
+          A firm administrator set your current password. Choose a new one to continue; the
+          temporary password stops working after a few days.
+        </Notice>
+      ) : null}
       <div className="grid max-w-4xl gap-6 md:grid-cols-2">
         <QueryBoundary query={me}>
           {({ user }) => (
@@ -46,15 +53,25 @@ export function AccountRoute() {
 
 function ChangePasswordForm() {
   const change = useChangePassword();
+  const me = useMe();
   const [currentPassword, setCurrent] = useState('');
   const [newPassword, setNew] = useState('');
   const [repeat, setRepeat] = useState('');
   const [localError, setLocalError] = useState<string | null>(null);
 
-  function submit(event: FormEvent) {
+  async function submit(event: FormEvent) {
     event.preventDefault();
-    if (newPassword.length < PASSWORD_MIN_LENGTH) {
-      setLocalError(`Use at least ${PASSWORD_MIN_LENGTH} characters.`);
+    const problem =
+      newPassword.length < PASSWORD_MIN_LENGTH
+        ? `Use at least ${PASSWORD_MIN_LENGTH} characters.`
+        : newPassword === currentPassword
+          ? 'The new password must differ from the current one.'
+          : await checkNewPassword(newPassword, {
+              email: me.data?.user.email,
+              name: me.data?.user.name,
+            });
+    if (problem) {
+      setLocalError(problem);
       return;
     }
     if (newPassword !== repeat) {
@@ -88,7 +105,7 @@ function ChangePasswordForm() {
         Every session you have open, on any device, ends when the password changes.
       </p>
       <form
-        onSubmit={submit}
+        onSubmit={(event) => void submit(event)}
         className="mt-3 space-y-3"
         noValidate
         data-testid="change-password-form"

@@ -1,13 +1,38 @@
 import { Fragment, useState } from 'react';
+import { Link } from 'react-router-dom';
 import { PublicLayout } from '@/components/layout/public-layout';
 import { Button, EmptyState, Notice, PageHeader, QueryBoundary } from '@/components/ui';
 import { type DevMailMessage, useDevMail } from '@/features/dev-mail/api/get-dev-mail';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
 
-/** /dev/mail — the fake SMTP server's mailbox, served only in demo/dev mode. */
+/**
+ * /dev/mail — the fake SMTP server's mailbox: open under `npm run dev`, for firm admins
+ * in demo mode (its links let whoever reads them choose a new account's password).
+ */
 export function DevMailRoute() {
   const mail = useDevMail();
+  if (mail.isError && isApiError(mail.error) && [401, 403].includes(mail.error.status)) {
+    return (
+      <PublicLayout>
+        <Notice tone="info" title="Firm administrators only">
+          The demo mailbox holds invitation and set-up links, which let whoever opens them choose an
+          account&apos;s password.{' '}
+          {mail.error.status === 401 ? (
+            <Link
+              to="/sign-in?next=%2Fdev%2Fmail"
+              className="font-medium text-accent-strong underline underline-offset-2"
+            >
+              Sign in as a firm administrator
+            </Link>
+          ) : (
+            'Sign in as a firm administrator'
+          )}{' '}
+          to read it.
+        </Notice>
+      </PublicLayout>
+    );
+  }
   if (mail.isError && isApiError(mail.error) && mail.error.status === 404) {
     return (
       <PublicLayout>

@@ -13,6 +13,7 @@ import {
 } from '@/components/ui';
 import { useAcceptInvitation } from '@/features/invitations/api/accept-invitation';
 import { useMe } from '@/features/auth/api/get-me';
+import { checkNewPassword } from '@/features/auth/new-password-check';
 import {
   type InvitationPreviewResponse,
   useInvitation,
@@ -77,12 +78,12 @@ function AcceptForm({
   const [repeat, setRepeat] = useState('');
   const [localError, setLocalError] = useState<string | null>(null);
 
-  function submit(event: FormEvent) {
+  async function submit(event: FormEvent) {
     event.preventDefault();
     if (!signedInAsInvitee && mode === 'create') {
       if (!name.trim()) return setLocalError('Enter your name.');
-      if (password.length < PASSWORD_MIN_LENGTH)
-        return setLocalError(`Use at least ${PASSWORD_MIN_LENGTH} characters for the password.`);
+      const problem = await checkNewPassword(password, { email: invitation.email, name });
+      if (problem) return setLocalError(problem);
       if (password !== repeat) return setLocalError('The two passwords differ.');
     }
     setLocalError(null);
@@ -115,7 +116,7 @@ function AcceptForm({
       </p>
       {signedInAsInvitee ? (
         <form
-          onSubmit={submit}
+          onSubmit={(event) => void submit(event)}
           className="mt-5 space-y-4 rounded-lg border border-line bg-panel p-5"
           data-testid="accept-form"
         >
@@ -156,7 +157,7 @@ function AcceptForm({
             ))}
           </fieldset>
           <form
-            onSubmit={submit}
+            onSubmit={(event) => void submit(event)}
             className="mt-4 space-y-4 rounded-lg border border-line bg-panel p-5"
             noValidate
             data-testid="accept-form"

@@ -1,14 +1,17 @@
-import { useQuery } from '@tanstack/react-query';
-import { devMailQueryOptions } from '@/features/dev-mail/api/get-dev-mail';
+import { useMe } from '@/features/auth/api/get-me';
+import { useInstance } from '@/features/dev-mail/api/get-instance';
 
 export function AppFooter() {
-  // The dev mailbox exists only in demo/dev mode; elsewhere the endpoint is a 404.
-  const devMail = useQuery({ ...devMailQueryOptions(), retry: false, staleTime: 5 * 60_000 });
+  // The dev mailbox: anyone's under `npm run dev`, firm admins' in demo mode, else none.
+  const access = useInstance().data?.devMailbox ?? 'off';
+  const me = useMe();
+  const showMailbox =
+    access === 'anyone' || (access === 'firm-admins' && me.data?.user.isAdmin === true);
   return (
     <footer className="border-t border-line">
       <div className="mx-auto flex max-w-[88rem] items-center gap-4 px-4 py-2 text-xs text-ink-muted">
         <span>Quarry — concept search and review for legal teams</span>
-        {devMail.isSuccess ? (
+        {showMailbox ? (
           <a
             href="/dev/mail"
             className="ml-auto underline decoration-line-strong underline-offset-2 hover:text-ink"

@@ -1,9 +1,10 @@
-import { NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { cn } from '@/lib/cn';
 import { Button } from '../ui';
 import { AppFooter } from './app-footer';
+import { DemoBanner } from './demo-banner';
 import { Wordmark } from './wordmark';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
@@ -18,6 +19,11 @@ export function AppLayout() {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const user = me.data?.user;
+  const { pathname } = useLocation();
+  // A temporary password set by a firm admin: the server refuses everything else until
+  // it is changed, so the only page offered is the password change.
+  if (me.data?.passwordChangeRequired && pathname !== '/account')
+    return <Navigate to="/account" replace />;
 
   return (
     <div className="flex min-h-screen flex-col">
@@ -27,6 +33,7 @@ export function AppLayout() {
       >
         Skip to content
       </a>
+      <DemoBanner />
       <header className="border-t-[3px] border-b border-t-accent border-b-line bg-panel">
         <div className="mx-auto flex h-12 max-w-[88rem] items-center gap-5 px-4">
           <Wordmark />

@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { Link, useLocation } from 'react-router-dom';
 import { AppFooter } from './app-footer';
+import { DemoBanner } from './demo-banner';
 import { Wordmark } from './wordmark';
 
 /** Pages reached without a session: sign-in, invitation, dev mailbox. */
@@ -8,6 +9,7 @@ export function PublicLayout({ children, wide = false }: { children: ReactNode; 
   const onSignIn = useLocation().pathname.startsWith('/sign-in');
   return (
     <div className="flex min-h-screen flex-col">
+      <DemoBanner />
       <header className="border-t-[3px] border-b border-t-accent border-b-line bg-panel">
         <div className="mx-auto flex h-12 max-w-[88rem] items-center px-4">
           <Wordmark to="/" />

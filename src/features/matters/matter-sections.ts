@@ -62,6 +62,13 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     summary: 'Add files or a .zip for a custodian and follow their extraction and indexing.',
   },
   {
+    id: 'productions',
+    label: 'Productions',
+    path: 'productions',
+    permission: 'productions.manage',
+    summary: 'Bates-numbered production sets with redactions burned in, built and downloaded.',
+  },
+  {
     id: 'access',
     label: 'Access',
     path: 'access',

@@ -7,6 +7,8 @@ import { ProgressBar } from './progress-bar';
 export const JOB_KIND_LABELS: Record<Job['kind'], string> = {
   'extract-batch': 'Text extraction',
   'build-index': 'Concept index build',
+  'build-production': 'Production build',
+  'concept-grouping': 'Concept grouping',
 };
 
 const STATUS_LABELS: Record<Job['status'], string> = {

@@ -11,6 +11,7 @@ import { useSetDocumentCodes } from '@/features/codes/api/set-document-codes';
 import { documentOriginalHref } from '@/features/documents/api/get-document';
 import { docTypeLabel, formatBytes } from '@/features/documents/format';
 import { useUnlockDocument } from '@/features/qc/api/unlock-document';
+import { RedactionPanel } from '@/features/redactions/components/redaction-panel';
 import {
   type SearchState,
   hasSearch,
@@ -79,6 +80,7 @@ export function ReviewPage({ matterId, docId }: { matterId: number; docId: numbe
   const canCode = useMatterPermission('documents.code');
   const canSearch = useMatterPermission('search.run');
   const canUnlock = useMatterPermission('qc.manage');
+  const canRedact = useMatterPermission('documents.redact');
   const noteRef = useRef<HTMLTextAreaElement>(null);
   const [legendOpen, setLegendOpen] = useLegendOpen();
   const [undo, setUndo] = useState<Undo | null>(null);
@@ -407,6 +409,13 @@ export function ReviewPage({ matterId, docId }: { matterId: number; docId: numbe
               ) : null}
             </div>
           </section>
+          <RedactionPanel
+            matterId={matterId}
+            documentId={doc.id}
+            body={data.text.body}
+            isPdf={doc.mime === 'application/pdf'}
+            canRedact={canRedact}
+          />
           {/* Slot: the document metadata panel (metadata feature) is added on this line. */}
           <Family matterId={matterId} data={data} suffix={keepSearch} />
           <KeyLegend

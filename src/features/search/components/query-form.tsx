@@ -4,19 +4,21 @@ import { QUERY_MAX_LENGTH } from '@shared/limits';
 import { Button } from '@/components/ui';
 import { cn } from '@/lib/cn';
 import { MODE_EXPLANATIONS, MODE_LABELS } from '../search-state';
-
-const isMac = typeof navigator !== 'undefined' && /Mac|iPhone|iPad/.test(navigator.platform);
+import { SyntaxHelp } from './syntax-help';
 
 /** The query box (a word, a sentence or a pasted paragraph) and the mode switch. */
 export function QueryForm({
   query,
   mode,
   busy,
+  serverError,
   onSubmit,
 }: {
   query: string;
   mode: SearchMode;
   busy: boolean;
+  /** The server's message for a malformed query (with its position), shown under the box. */
+  serverError?: string | null;
   /** Runs the search; a mode change alone runs it too when there is a query. */
   onSubmit: (query: string, mode: SearchMode) => void;
 }) {
@@ -52,11 +54,15 @@ export function QueryForm({
   }
 
   function onKeyDown(event: KeyboardEvent<HTMLTextAreaElement>) {
-    if (event.key === 'Enter' && (event.ctrlKey || event.metaKey)) {
+    // Enter runs the search; Shift+Enter starts a new line (a pasted paragraph keeps its).
+    if (event.key === 'Enter' && !event.shiftKey && !event.nativeEvent.isComposing) {
       event.preventDefault();
       run(selected);
     }
   }
+
+  // The server's syntax error applies to the query it ran; editing the box hides it.
+  const shownError = error ?? (draft.trim() === query.trim() ? (serverError ?? null) : null);
 
   return (
     <form onSubmit={submit} className="space-y-3" role="search" aria-label="Search the matter">
@@ -71,16 +77,22 @@ export function QueryForm({
           onKeyDown={onKeyDown}
           rows={draft.length > 160 ? 5 : 2}
           placeholder="A word, a sentence, or a paragraph pasted from a document"
-          aria-invalid={error ? true : undefined}
-          aria-describedby={`${boxId}-hint${error ? ` ${boxId}-error` : ''}`}
+          aria-invalid={shownError ? true : undefined}
+          aria-describedby={`${boxId}-hint${shownError ? ` ${boxId}-error` : ''}`}
           className="block w-full resize-y rounded-md border border-line-strong bg-panel px-3 py-2 font-document text-[15px] leading-snug text-ink placeholder:font-sans placeholder:text-sm placeholder:text-ink-faint aria-[invalid=true]:border-danger"
           data-testid="search-query"
         />
-        {error ? (
-          <p id={`${boxId}-error`} className="text-xs font-medium text-danger">
-            {error}
+        {shownError ? (
+          <p
+            id={`${boxId}-error`}
+            className="text-xs font-medium text-danger"
+            role="alert"
+            data-testid="search-query-error"
+          >
+            {shownError}
           </p>
         ) : null}
+        <SyntaxHelp />
       </div>
       <div className="flex flex-wrap items-stretch gap-3">
         <fieldset className="min-w-0 flex-1">
@@ -125,8 +137,8 @@ export function QueryForm({
             Search
           </Button>
           <span id={`${boxId}-hint`} className="text-center text-[11px] text-ink-faint">
-            <kbd className="font-mono">{isMac ? '⌘' : 'Ctrl'}</kbd>+
-            <kbd className="font-mono">Enter</kbd> runs it
+            <kbd className="font-mono">Enter</kbd> runs it, <kbd className="font-mono">Shift</kbd>+
+            <kbd className="font-mono">Enter</kbd> new line
           </span>
         </div>
       </div>

@@ -5,7 +5,10 @@ import { formatDateTime } from '@/lib/format';
 import { useRecentSearches } from '../api/get-recent-searches';
 import { MODE_LABELS, searchHref } from '../search-state';
 
-/** The signed-in person's last searches on this matter (from the audit log). */
+/** At most this many lines, so the panel never grows past the query card. */
+export const RECENT_SHOWN = 8;
+
+/** The signed-in person's last searches on this matter (from the audit log), one line each. */
 export function RecentSearchesPanel({ matterId }: { matterId: number }) {
   const recent = useRecentSearches(matterId);
   return (
@@ -26,13 +29,17 @@ export function RecentSearchesPanel({ matterId }: { matterId: number }) {
       ) : recent.data.searches.length === 0 ? (
         <p className="text-xs text-ink-muted">Searches you run appear here.</p>
       ) : (
-        <ul className="space-y-1.5 text-[13px]">
-          {recent.data.searches.map((item, index) => (
-            <li key={`${item.at}-${index}`}>
+        <ul className="space-y-1 text-[13px]">
+          {recent.data.searches.slice(0, RECENT_SHOWN).map((item, index) => (
+            <li
+              key={`${item.at}-${index}`}
+              className="flex min-w-0 items-baseline gap-2"
+              title={`${MODE_LABELS[item.mode]} · ${item.hits} hits · ${formatDateTime(item.at)}`}
+              data-testid="recent-search"
+            >
               {item.query || item.similarToDocumentId ? (
                 <Link
-                  className="block truncate text-accent-strong hover:underline"
-                  title={item.query || 'More like this document'}
+                  className="min-w-0 flex-1 truncate text-accent-strong hover:underline"
                   to={searchHref(matterId, {
                     query: item.query,
                     mode: item.mode,
@@ -46,10 +53,12 @@ export function RecentSearchesPanel({ matterId }: { matterId: number }) {
                 </Link>
               ) : (
                 // The passage itself is not kept in the log, so it cannot be re-run from here.
-                <span className="block text-ink-muted">More like a selected passage</span>
+                <span className="min-w-0 flex-1 truncate text-ink-muted">
+                  More like a selected passage
+                </span>
               )}
-              <span className="text-[11px] text-ink-faint">
-                {MODE_LABELS[item.mode]} · {item.hits} hits · {formatDateTime(item.at)}
+              <span className="shrink-0 text-[11px] text-ink-faint tabular-nums">
+                {item.hits.toLocaleString()} hits
               </span>
             </li>
           ))}

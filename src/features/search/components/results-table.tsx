@@ -9,6 +9,7 @@ import {
   tableFeatures,
   useTable,
 } from '@tanstack/react-table';
+import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { SearchHit, SearchSort, SortField } from '@shared/schemas/search';
 import { Badge } from '@/components/ui';
@@ -39,11 +40,12 @@ const headerClass: Record<string, string> = {
   select: 'w-9',
   controlNumber: 'w-[7.5rem]',
   title: '',
-  custodian: 'w-[9rem]',
+  // Narrow metadata columns leave the snippet most of the row.
+  custodian: 'w-[7.5rem]',
   date: 'w-[6.5rem]',
-  docType: 'w-[5.5rem]',
-  score: 'w-[8rem]',
-  codes: 'w-[10rem]',
+  docType: 'w-[5rem]',
+  score: 'w-[6.5rem]',
+  codes: 'w-[8rem]',
 };
 
 function toSorting(sort: SearchSort | undefined): SortingState {
@@ -233,8 +235,7 @@ export function ResultsTable({
                       Exact copy of another document
                     </span>
                   ) : null}
-                  <Snippet segments={hit.snippet} className="mt-1 line-clamp-3" />
-                  <WhyMatched hit={hit} />
+                  <RowDetail hit={hit} />
                 </td>
                 <td
                   className="truncate px-2.5 py-2 text-ink-muted"
@@ -268,6 +269,26 @@ export function ResultsTable({
         </tbody>
       </table>
     </div>
+  );
+}
+
+/** Two lines of snippet; the whole snippet and why it matched on demand (compact rows). */
+function RowDetail({ hit }: { hit: SearchHit }) {
+  const [open, setOpen] = useState(false);
+  return (
+    <>
+      <Snippet segments={hit.snippet} className={cn('mt-1', open ? '' : 'line-clamp-2')} />
+      {open ? <WhyMatched hit={hit} /> : null}
+      <button
+        type="button"
+        className="mt-0.5 text-[11px] text-ink-muted hover:text-ink hover:underline"
+        aria-expanded={open}
+        onClick={() => setOpen(!open)}
+        data-testid="row-more"
+      >
+        {open ? 'Less' : 'More: whole snippet, why it matched'}
+      </button>
+    </>
   );
 }
 
