@@ -10,6 +10,9 @@ import * as documentFamilies from './2026_12_04_0100_document_families';
 import * as documentMetadata from './2026_12_04_0200_document_metadata';
 import * as authHardening from './2026_12_04_1100_auth_hardening';
 import * as legalHoldsAndTrash from './2026_12_04_1180_legal_holds_and_trash';
+import * as reviewBatches from './2026_12_04_1400_review_batches';
+import * as codeGroups from './2026_12_04_1401_code_groups';
+import * as qualityControl from './2026_12_04_1402_quality_control';
 import * as exactWordsIndex from './2026_12_04_1200_exact_words_index';
 import * as documentRelationships from './2026_12_04_1300_document_relationships';
 import * as productions from './2026_12_04_1500_productions';
@@ -31,6 +34,9 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_1180_legal_holds_and_trash': legalHoldsAndTrash,
   '2026_12_04_1200_exact_words_index': exactWordsIndex,
   '2026_12_04_1300_document_relationships': documentRelationships,
+  '2026_12_04_1400_review_batches': reviewBatches,
+  '2026_12_04_1401_code_groups': codeGroups,
+  '2026_12_04_1402_quality_control': qualityControl,
   '2026_12_04_1500_productions': productions,
   '2026_12_04_1600_prioritised_validation': prioritisedValidation,
 };

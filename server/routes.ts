@@ -1,6 +1,7 @@
 import { accountSetupRoutes } from './account-setup/router';
 import { adminRoutes } from './admin/router';
 import { auditRoutes } from './audit/router';
+import { batchRoutes } from './batches/router';
 import { codeRoutes } from './codes/router';
 import { conceptRoutes } from './concepts/router';
 import { authRoutes } from './auth/router';
@@ -13,6 +14,7 @@ import { invitationRoutes } from './invitations/router';
 import { jobRoutes } from './jobs/router';
 import { matterRoutes } from './matters/router';
 import { memberRoutes } from './members/router';
+import { qcRoutes } from './qc/router';
 import { productionRoutes } from './productions/router';
 import { redactionRoutes } from './redactions/router';
 import { reviewRoutes } from './review/router';
@@ -48,6 +50,8 @@ export const apiRoutes: readonly AnyRouteSpec[] = [
   ...jobRoutes,
   ...indexRoutes,
   ...conceptRoutes,
+  ...batchRoutes,
+  ...qcRoutes,
   ...holdRoutes,
   ...trashRoutes,
   ...redactionRoutes,

@@ -30,6 +30,9 @@ export const MATTER_PERMISSIONS = [
   'index.rebuild',
   'concepts.view',
   'concepts.label',
+  'batches.manage',
+  'qc.manage',
+  'privilege_log.edit',
   'holds.manage',
   'documents.restore',
   'documents.purge',
@@ -64,6 +67,12 @@ export const MATTER_POLICY: Record<MatterPermission, readonly MatterRole[]> = {
   'index.rebuild': ['lead'],
   'concepts.view': ['lead', 'attorney'],
   'concepts.label': ['lead'],
+  // Leads and attorneys cut and assign batches; anyone who codes works their own.
+  'batches.manage': ['lead', 'attorney'],
+  // Drawing QC samples and unlocking QC'd decisions is the lead's.
+  'qc.manage': ['lead'],
+  // The in-app privilege log: read and edit descriptions.
+  'privilege_log.edit': ['lead', 'attorney'],
   // Legal holds and the trash: only the matter lead sets or releases a hold, restores a
   // deleted document or destroys it for good.
   'holds.manage': ['lead'],

@@ -55,11 +55,12 @@ describe('code set', () => {
       'Responsive',
       'Not responsive',
       'Privileged',
+      'Not privileged',
       'Hot',
       'Needs second look',
     ]);
     expect(codes.filter((c) => c.marksPrivileged).map((c) => c.name)).toEqual(['Privileged']);
-    expect(new Set(codes.map((c) => c.shortcut)).size).toBe(5);
+    expect(new Set(codes.map((c) => c.shortcut)).size).toBe(6);
   });
 
   test('the lead adds, renames and archives codes; others may not (codes.manage)', async () => {
@@ -152,9 +153,17 @@ describe('coding', () => {
       .post(`${base}/codes/bulk`)
       .send({ documentIds: docs, add: [hot, codeId('Responsive')] });
     expect(res.status).toBe(200);
-    expect(res.body.changed).toBe(4);
+    // Responsiveness follows exact duplicates by default: c1's copy gets Responsive too.
+    expect(res.body.changed).toBe(5);
     const rows = await codingRows(after);
-    expect(rows.map((r) => Number(r.target_id)).sort()).toEqual([...docs].sort());
+    expect(rows.map((r) => Number(r.target_id)).sort()).toEqual([...docs, m.duplicateOfC1].sort());
+    expect(
+      JSON.parse(rows.find((r) => r.target_id === String(m.duplicateOfC1))!.detail),
+    ).toMatchObject({
+      added: [codeId('Responsive')],
+      source: 'duplicate',
+      fromDocumentId: m.ids.c1,
+    });
     // c1 already had Hot: its row adds only Responsive.
     const c1Row = rows.find((r) => r.target_id === String(m.ids.c1))!;
     expect(JSON.parse(c1Row.detail).added).toEqual([codeId('Responsive')]);
@@ -169,8 +178,8 @@ describe('coding', () => {
     const removal = await agents.reviewer
       .post(`${base}/codes/bulk`)
       .send({ documentIds: [...docs, m.ids.m1], remove: [hot, codeId('Responsive')] });
-    expect(removal.body).toMatchObject({ changed: 4, unchanged: 1 });
-    expect(await codingRows(after2)).toHaveLength(4);
+    expect(removal.body).toMatchObject({ changed: 5, unchanged: 1 });
+    expect(await codingRows(after2)).toHaveLength(5);
     expect(
       await t.ctx.db
         .selectFrom('document_codes')

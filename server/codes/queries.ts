@@ -7,7 +7,16 @@ type Executor = Kysely<Database> | Transaction<Database>;
 export function listCodesWithCounts(db: Executor, matterId: number) {
   return db
     .selectFrom('codes as c')
-    .select(['c.id', 'c.name', 'c.shortcut', 'c.sort_order', 'c.marks_privileged', 'c.archived_at'])
+    .select([
+      'c.id',
+      'c.name',
+      'c.shortcut',
+      'c.sort_order',
+      'c.marks_privileged',
+      'c.archived_at',
+      'c.group_id',
+      'c.colour',
+    ])
     .select((eb) =>
       eb
         .selectFrom('document_codes as dc')
@@ -76,6 +85,8 @@ export async function insertCode(
     shortcut: string | null;
     marksPrivileged: boolean;
     sortOrder: number;
+    groupId: number | null;
+    colour: string;
   },
 ): Promise<number> {
   const row = await db
@@ -88,6 +99,8 @@ export async function insertCode(
       marks_privileged: values.marksPrivileged ? 1 : 0,
       archived_at: null,
       created_at: new Date().toISOString(),
+      group_id: values.groupId,
+      colour: values.colour,
     })
     .returning('id')
     .executeTakeFirstOrThrow();
@@ -103,6 +116,8 @@ export async function updateCode(
     marks_privileged?: number;
     sort_order?: number;
     archived_at?: string | null;
+    group_id?: number;
+    colour?: string;
   },
 ): Promise<void> {
   await db.updateTable('codes').set(set).where('id', '=', codeId).execute();
@@ -183,4 +198,118 @@ export async function removeDocumentCodes(
       .where('code_id', '=', row.codeId)
       .execute();
   }
+}
+
+export function listGroups(db: Executor, matterId: number) {
+  return db
+    .selectFrom('code_groups')
+    .selectAll()
+    .where('matter_id', '=', matterId)
+    .orderBy('sort_order')
+    .orderBy('id')
+    .execute();
+}
+
+export function findGroup(db: Executor, matterId: number, groupId: number) {
+  return db
+    .selectFrom('code_groups')
+    .selectAll()
+    .where('matter_id', '=', matterId)
+    .where('id', '=', groupId)
+    .executeTakeFirst();
+}
+
+export async function insertGroup(
+  db: Executor,
+  v: {
+    matterId: number;
+    name: string;
+    kind: 'single' | 'multi' | 'privilege';
+    required: boolean;
+    followFamily: boolean;
+    followDuplicates: boolean;
+    sortOrder: number;
+  },
+) {
+  const row = await db
+    .insertInto('code_groups')
+    .values({
+      matter_id: v.matterId,
+      name: v.name,
+      kind: v.kind,
+      required: v.required ? 1 : 0,
+      follow_family: v.followFamily ? 1 : 0,
+      follow_duplicates: v.followDuplicates ? 1 : 0,
+      sort_order: v.sortOrder,
+      created_at: new Date().toISOString(),
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return row.id;
+}
+
+/** Family, duplicate and lock facts of documents, for the coding rules. */
+export async function documentFacts(db: Executor, matterId: number, ids: number[]) {
+  const out = [];
+  for (let start = 0; start < ids.length; start += 900) {
+    out.push(
+      ...(await db
+        .selectFrom('documents as d')
+        .leftJoin('coding_locks as l', 'l.document_id', 'd.id')
+        .select(['d.id', 'd.family_id', 'd.duplicate_of', 'd.control_number', 'l.locked_at'])
+        .where('d.matter_id', '=', matterId)
+        .where('d.id', 'in', ids.slice(start, start + 900))
+        .execute()),
+    );
+  }
+  return out;
+}
+
+export function familyOf(db: Executor, matterId: number, familyIds: number[]) {
+  return db
+    .selectFrom('documents')
+    .select(['id', 'family_id'])
+    .where('matter_id', '=', matterId)
+    .where('family_id', 'in', familyIds.length ? familyIds : [-1])
+    .execute();
+}
+
+/** Exact duplicates: every document that is, or shares, the same first copy. */
+export function duplicatesOfRoots(db: Executor, matterId: number, roots: number[]) {
+  const list = roots.length ? roots : [-1];
+  return db
+    .selectFrom('documents')
+    .select(['id', 'duplicate_of'])
+    .where('matter_id', '=', matterId)
+    .where((eb) => eb.or([eb('duplicate_of', 'in', list), eb('id', 'in', list)]))
+    .execute();
+}
+
+export function privilegeEntriesOf(db: Executor, ids: number[]) {
+  return db
+    .selectFrom('privilege_entries')
+    .selectAll()
+    .where('document_id', 'in', ids.length ? ids : [-1])
+    .execute();
+}
+
+export async function upsertPrivilegeFields(
+  db: Executor,
+  documentId: number,
+  v: {
+    privilege_type: string;
+    basis: string;
+    description: string;
+    treatment: 'withheld' | 'redacted';
+  },
+  userId: string,
+  at: string,
+) {
+  await db
+    .insertInto('privilege_entries')
+    .values({ document_id: documentId, ...v, updated_by: userId, updated_at: at })
+    .onConflict((oc) =>
+      oc.column('document_id').doUpdateSet({ ...v, updated_by: userId, updated_at: at }),
+    )
+    .execute();
 }

@@ -1,6 +1,10 @@
 import {
   bulkCodingSchema,
+  codeGroupParams,
   codeParams,
+  createCodeGroupSchema,
+  updateCodeGroupSchema,
+  type CodeGroupResponse,
   createCodeSchema,
   setDocumentCodesSchema,
   updateCodeSchema,
@@ -17,6 +21,8 @@ import {
   archiveCode,
   bulkCode,
   changeCode,
+  changeCodeGroup,
+  createCodeGroup,
   createCode,
   listCodes,
   setDocumentCodes,
@@ -93,7 +99,7 @@ export const codeRoutes = [
     schemas: { params: documentParams, body: setDocumentCodesSchema },
     summary: "Set a document's codes",
     handler: async ({ ctx, matter, params, body, user, ip }): Promise<DocumentCodesResponse> => {
-      const result = await setDocumentCodes(ctx.db, matter.matterId, params.docId, body.codeIds, {
+      const result = await setDocumentCodes(ctx.db, matter.matterId, params.docId, body, {
         id: user.id,
         email: user.email,
         ip,
@@ -101,5 +107,28 @@ export const codeRoutes = [
       await afterCodingQuietly(ctx, matter.matterId);
       return result;
     },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/matters/:matterId/code-groups',
+    access: { matter: 'codes.manage' },
+    schemas: { params: matterParams, body: createCodeGroupSchema },
+    status: 201,
+    summary: 'Add a code group (single-choice, multi-choice or the privilege group)',
+    handler: ({ ctx, matter, body, user, ip }): Promise<CodeGroupResponse> =>
+      createCodeGroup(ctx.db, matter.matterId, body, { id: user.id, email: user.email, ip }),
+  }),
+  defineRoute({
+    method: 'patch',
+    path: '/matters/:matterId/code-groups/:groupId',
+    access: { matter: 'codes.manage' },
+    schemas: { params: codeGroupParams, body: updateCodeGroupSchema },
+    summary: 'Rename a code group, mark it required, or make it follow families and duplicates',
+    handler: ({ ctx, matter, params, body, user, ip }): Promise<CodeGroupResponse> =>
+      changeCodeGroup(ctx.db, matter.matterId, params.groupId, body, {
+        id: user.id,
+        email: user.email,
+        ip,
+      }),
   }),
 ];

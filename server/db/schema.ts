@@ -274,6 +274,22 @@ export interface CodesTable {
   marks_privileged: Generated<number>;
   archived_at: string | null;
   created_at: string;
+  /** Its code group (migration 2026_12_04_1401); null only for a code made outside the layout. */
+  group_id: number | null;
+  /** A colour name of CODE_COLOURS (shared/schemas/codes.ts). */
+  colour: Generated<string>;
+}
+
+export interface CodeGroupsTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  kind: 'single' | 'multi' | 'privilege';
+  required: Generated<number>;
+  follow_family: Generated<number>;
+  follow_duplicates: Generated<number>;
+  sort_order: Generated<number>;
+  created_at: string;
 }
 
 export interface DocumentCodesTable {
@@ -287,6 +303,8 @@ export interface PrivilegeEntriesTable {
   document_id: number;
   basis: Generated<string>;
   description: Generated<string>;
+  privilege_type: Generated<string>;
+  treatment: Generated<'withheld' | 'redacted'>;
   updated_by: string;
   updated_at: string;
 }
@@ -321,6 +339,71 @@ export interface AuditEventsTable {
   target_id: string | null;
   detail: Generated<string>;
   ip: string | null;
+}
+
+export type BatchKind = 'review' | 'qc' | 'validation';
+export type BatchState = 'unassigned' | 'assigned' | 'checked_out' | 'checked_in';
+
+export interface ReviewBatchesTable {
+  id: Generated<number>;
+  matter_id: number;
+  name: string;
+  kind: BatchKind;
+  state: Generated<BatchState>;
+  assignee_id: string | null;
+  /** How the batch was cut, as a person reads it ("Search: pricing (hybrid)"). */
+  source: Generated<string>;
+  /** JSON of the request that cut it. */
+  source_detail: Generated<string>;
+  created_by: string | null;
+  created_at: string;
+  assigned_at: string | null;
+  checked_out_at: string | null;
+  checked_in_at: string | null;
+}
+
+export interface ReviewBatchDocumentsTable {
+  batch_id: number;
+  document_id: number;
+  position: number;
+  /** The batch's kind while it is open, NULL once checked in (unique per document and kind). */
+  open_kind: string | null;
+}
+
+export interface QcSamplesTable {
+  id: Generated<number>;
+  matter_id: number;
+  batch_id: number;
+  method: 'share' | 'count' | 'targeted';
+  seed: number | null;
+  share: number | null;
+  requested: number | null;
+  population: number;
+  criteria: Generated<string>;
+  created_by: string | null;
+  created_at: string;
+}
+
+export interface QcItemsTable {
+  id: Generated<number>;
+  sample_id: number;
+  document_id: number;
+  code_id: number;
+  first_coder_id: string | null;
+  first_coded_at: string | null;
+  verdict: 'confirmed' | 'overturned' | null;
+  replacement_code_id: number | null;
+  decided_by: string | null;
+  decided_at: string | null;
+  note: Generated<string>;
+}
+
+export interface CodingLocksTable {
+  document_id: number;
+  matter_id: number;
+  sample_id: number | null;
+  locked_by: string | null;
+  locked_at: string;
 }
 
 /** A legal hold on a matter (custodian_id null) or one custodian (migration 2026_12_04_1180). */
@@ -457,6 +540,12 @@ export interface Database {
   concept_groups: ConceptGroupsTable;
   concept_group_members: ConceptGroupMembersTable;
   codes: CodesTable;
+  code_groups: CodeGroupsTable;
+  review_batches: ReviewBatchesTable;
+  review_batch_documents: ReviewBatchDocumentsTable;
+  qc_samples: QcSamplesTable;
+  qc_items: QcItemsTable;
+  coding_locks: CodingLocksTable;
   document_codes: DocumentCodesTable;
   privilege_entries: PrivilegeEntriesTable;
   notes: NotesTable;

@@ -146,19 +146,58 @@ describe('results.csv', () => {
 });
 
 describe('privilege-log.csv', () => {
-  test('documents coded Privileged with their basis and description, quoted per RFC 4180', async () => {
+  test('parsed back and compared with the database, family rows under their parent', async () => {
     const codes = (await lead.get(`${base}/codes`)).body.codes as { id: number; name: string }[];
-    const privileged = codes.find((c) => c.name === 'Privileged')!.id;
-    await lead
-      .post(`${base}/codes/bulk`)
-      .send({ documentIds: [m.ids.c5, m.ids.c3], add: [privileged] });
+    const code = (name: string) => codes.find((c) => c.name === name)!.id;
+    // c1: an e-mail with two attachments, c2 (Word) and c3 (PDF); c3 is coded Not privileged.
+    const db = t.ctx.db;
+    await db
+      .updateTable('documents')
+      .set({
+        doc_type: 'email',
+        mime: 'message/rfc822',
+        email_from: 'Ana Counsel <ana@firm.example>',
+        email_to: 'Bo Client <bo@client.example>, Cy Client <cy@client.example>',
+        email_cc: 'Di Paralegal <di@firm.example>',
+        email_bcc: 'Ed Partner <ed@firm.example>',
+      })
+      .where('id', '=', m.ids.c1)
+      .execute();
+    for (const [child, type, mime] of [
+      [m.ids.c2, 'docx', 'application/vnd.openxmlformats-officedocument.wordprocessingml.document'],
+      [m.ids.c3, 'pdf', 'application/pdf'],
+    ] as const)
+      await db
+        .updateTable('documents')
+        .set({ parent_id: m.ids.c1, family_id: m.ids.c1, doc_type: type, mime })
+        .where('id', '=', child)
+        .execute();
     const tricky = 'Advice on "response time", line one\nline two';
+    expect(
+      (
+        await lead.put(`${base}/documents/${m.ids.c1}/codes`).send({
+          codeIds: [code('Privileged')],
+          privilege: {
+            type: 'Attorney-client privilege',
+            basis: 'Legal advice',
+            description: tricky,
+          },
+        })
+      ).status,
+    ).toBe(200);
     await lead
-      .put(`${base}/documents/${m.ids.c3}/privilege`)
-      .send({ basis: 'Attorney-client', description: tricky });
-    await lead
-      .put(`${base}/documents/${m.ids.c5}/privilege`)
-      .send({ basis: 'Work product', description: '=HYPERLINK("x")' });
+      .put(`${base}/documents/${m.ids.c3}/codes`)
+      .send({ codeIds: [code('Not privileged')] });
+    await lead.put(`${base}/documents/${m.ids.c5}/codes`).send({
+      codeIds: [code('Privileged')],
+      privilege: {
+        type: 'Work product',
+        basis: 'Prepared for litigation',
+        description: '=HYPERLINK("x")',
+        treatment: 'redacted',
+      },
+    });
+
     const { res, bytes } = await download(lead, `${base}/exports/privilege-log.csv`);
     expect(res.status).toBe(200);
     expect(res.headers['content-disposition']).toMatch(
@@ -168,40 +207,121 @@ describe('privilege-log.csv', () => {
     // RFC 4180 section 2, rules 6 and 7: the field is quoted and its quotes doubled.
     expect(raw).toContain('"Advice on ""response time"", line one\nline two"');
     const [header, ...rows] = parseCsv(bytes);
+    expect(header).toEqual([
+      'Control number',
+      'Family begin',
+      'Family end',
+      'Family relation',
+      'Date',
+      'Author',
+      'From',
+      'To',
+      'Cc',
+      'Bcc',
+      'Subject or title',
+      'Custodian',
+      'Document type',
+      'Privilege type',
+      'Basis',
+      'Description',
+      'Withheld or redacted',
+    ]);
     expect(header).toEqual([...PRIVILEGE_LOG_CSV_COLUMNS]);
-    const expected = await t.ctx.db
+    // Expected rows written out from the database (the labels a person reads, not extensions).
+    const docs = await db
       .selectFrom('documents as d')
-      .innerJoin('privilege_entries as p', 'p.document_id', 'd.id')
+      .leftJoin('custodians as c', 'c.id', 'd.custodian_id')
       .select([
+        'd.id',
         'd.control_number',
         'd.sent_at',
         'd.author',
-        'd.recipients',
-        'd.doc_type',
-        'p.basis',
-        'p.description',
+        'd.email_from',
+        'd.email_to',
+        'd.email_cc',
+        'd.email_bcc',
+        'd.title',
+        'c.name as custodian',
       ])
-      .where('d.id', 'in', [m.ids.c3, m.ids.c5])
-      .orderBy('d.control_number')
+      .where('d.id', 'in', [m.ids.c1, m.ids.c2, m.ids.c3, m.ids.c5, m.duplicateOfC1])
       .execute();
-    expect(rows).toEqual(
-      expected.map((d) => [
-        d.control_number,
-        d.sent_at!.slice(0, 10),
-        d.author,
-        d.recipients,
-        d.doc_type,
-        d.basis,
-        d.description.startsWith('=') ? `'${d.description}` : d.description,
+    const d = new Map(docs.map((x) => [x.id, x]));
+    const cn = (id: number) => d.get(id)!.control_number;
+    const row = (id: number, family: [string, string, string], type: string, priv: string[]) => {
+      const x = d.get(id)!;
+      return [
+        x.control_number,
+        ...family,
+        x.sent_at?.slice(0, 10) ?? '',
+        x.author,
+        x.email_from,
+        x.email_to,
+        x.email_cc,
+        x.email_bcc,
+        x.title,
+        x.custodian ?? '',
+        type,
+        ...priv,
+      ];
+    };
+    const family: [string, string] = [cn(m.ids.c1), cn(m.ids.c3)];
+    expect(rows).toEqual([
+      row(m.ids.c1, [...family, 'Parent'], 'E-mail', [
+        'Attorney-client privilege',
+        'Legal advice',
+        tricky,
+        'Withheld',
       ]),
-    );
-    expect(rows[1][6]).toBe(`'=HYPERLINK("x")`);
-    const audit = await t.ctx.db
+      // The Word attachment is on the log under its parent, with the parent's type and basis;
+      // the PDF attachment coded Not privileged is not.
+      row(m.ids.c2, [...family, 'Attachment'], 'Word document', [
+        'Attorney-client privilege',
+        'Legal advice',
+        '',
+        'Withheld',
+      ]),
+      row(m.ids.c5, ['', '', ''], 'Word document', [
+        'Work product',
+        'Prepared for litigation',
+        `'=HYPERLINK("x")`,
+        'Redacted',
+      ]),
+      // c1's exact duplicate took Privileged (the Privilege group follows duplicates) and its entry.
+      row(m.duplicateOfC1, ['', '', ''], 'E-mail', [
+        'Attorney-client privilege',
+        'Legal advice',
+        tricky,
+        'Withheld',
+      ]),
+    ]);
+    expect(rows[0][6]).toBe('Ana Counsel <ana@firm.example>');
+    const audit = await db
       .selectFrom('audit_events')
       .select(['detail', 'actor_id'])
       .where('action', '=', 'export.privilege_log')
       .execute();
     expect(audit).toHaveLength(1);
-    expect(JSON.parse(audit[0].detail).rows).toBe(2);
+    expect(JSON.parse(audit[0].detail)).toMatchObject({ rows: 4, familyRows: 2 });
+
+    // The in-app log shows the same rows, and a description is edited in place (audited).
+    const screen = await attorney.get(`${base}/privilege-log`);
+    expect(screen.body.rows.map((r: { controlNumber: string }) => r.controlNumber)).toEqual(
+      rows.map((r) => r[0]),
+    );
+    expect(screen.body.rows[1].inherited).toBe(true);
+    const patched = await attorney
+      .patch(`${base}/privilege-log/${m.ids.c2}`)
+      .send({ description: 'Draft agreement attached to counsel advice' });
+    expect(patched.status).toBe(200);
+    expect(patched.body.row).toMatchObject({
+      description: 'Draft agreement attached to counsel advice',
+      basis: 'Legal advice',
+    });
+    const offLog = await attorney
+      .patch(`${base}/privilege-log/${m.ids.c3}`)
+      .send({ description: 'x' });
+    expect(offLog.status).toBe(404);
+    expect(offLog.body.error.message).toBe('Privilege log entry not found.');
+    expect((await (await t.agentFor(reviewer)).get(`${base}/privilege-log`)).status).toBe(403);
   });
 });

@@ -2,6 +2,12 @@ import { matterParams } from '../../shared/schemas/common';
 import { resultsExportQuerySchema } from '../../shared/schemas/exports';
 import { defineRoute } from '../http/route';
 import { sendCsv } from './csv';
+import {
+  privilegeLogParams,
+  privilegeLogPatchSchema,
+  type PrivilegeLogResponse,
+} from '../../shared/schemas/privilege-log';
+import { buildPrivilegeLog, patchPrivilegeLogRow } from './privilege-log';
 import { exportPrivilegeLog, exportResults } from './service';
 
 export const exportRoutes = [
@@ -34,5 +40,28 @@ export const exportRoutes = [
       });
       sendCsv(res, csv.filename, csv.body);
     },
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/matters/:matterId/privilege-log',
+    access: { matter: 'privilege_log.edit' },
+    schemas: { params: matterParams },
+    summary: 'The privilege log rows (family members under their parent)',
+    handler: async ({ ctx, matter }): Promise<PrivilegeLogResponse> => ({
+      rows: await buildPrivilegeLog(ctx.db, matter.matterId),
+    }),
+  }),
+  defineRoute({
+    method: 'patch',
+    path: '/matters/:matterId/privilege-log/:docId',
+    access: { matter: 'privilege_log.edit' },
+    schemas: { params: privilegeLogParams, body: privilegeLogPatchSchema },
+    summary: "Edit a privilege log row's description, basis, type or treatment",
+    handler: ({ ctx, matter, params, body, user, ip }) =>
+      patchPrivilegeLogRow(ctx.db, matter.matterId, params.docId, body, {
+        id: user.id,
+        email: user.email,
+        ip,
+      }),
   }),
 ];

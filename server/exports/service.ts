@@ -5,6 +5,7 @@ import {
   RESULTS_CSV_COLUMNS,
 } from '../../shared/schemas/exports';
 import type { SearchFilters, SearchMode, SearchSort } from '../../shared/schemas/search';
+import { PRIVILEGE_LOG_COLUMNS } from '../../shared/schemas/privilege-log';
 import { recordAudit } from '../audit/record';
 import { appliedCodesOf } from '../codes/service';
 import type { AppContext } from '../context';
@@ -12,12 +13,8 @@ import { pageIds } from '../search/service';
 import { documentsByIds } from '../search/queries';
 import { rankResultSet } from '../search/ranking';
 import { toCsv } from './csv';
-import {
-  collectionCells,
-  collectionFieldsOf,
-  findMatterPrefix,
-  listPrivilegeLogRows,
-} from './queries';
+import { buildPrivilegeLog } from './privilege-log';
+import { collectionCells, collectionFieldsOf, findMatterPrefix } from './queries';
 
 export interface Actor {
   id: string;
@@ -105,16 +102,8 @@ export async function exportResults(
 }
 
 export async function exportPrivilegeLog(ctx: AppContext, matterId: number, actor: Actor) {
-  const rowsDb = await listPrivilegeLogRows(ctx.db, matterId);
-  const rows = rowsDb.map((r) => [
-    r.control_number,
-    dateOf(r.sent_at),
-    r.author,
-    r.recipients,
-    r.doc_type,
-    r.basis ?? '',
-    r.description ?? '',
-  ]);
+  const log = await buildPrivilegeLog(ctx.db, matterId);
+  const rows = log.map((r) => PRIVILEGE_LOG_COLUMNS.map(([field]) => r[field]));
   await recordAudit(ctx.db, {
     actorId: actor.id,
     actorEmail: actor.email,
@@ -125,7 +114,9 @@ export async function exportPrivilegeLog(ctx: AppContext, matterId: number, acto
     targetId: matterId,
     detail: {
       rows: rows.length,
-      withoutBasis: rowsDb.filter((r) => !r.basis).length,
+      familyRows: log.filter((r) => r.relation !== '').length,
+      withoutBasis: log.filter((r) => !r.basis).length,
+      withoutDescription: log.filter((r) => !r.description).length,
     },
   });
   return {

@@ -77,6 +77,8 @@ export function findPrivilegeEntry(db: Executor, docId: number) {
     .select([
       'p.basis',
       'p.description',
+      'p.privilege_type',
+      'p.treatment',
       'p.updated_at',
       'p.updated_by',
       'u.name as updater_name',
@@ -89,15 +91,26 @@ export function findPrivilegeEntry(db: Executor, docId: number) {
 export async function upsertPrivilegeEntry(
   db: Executor,
   docId: number,
-  values: { basis: string; description: string; userId: string },
+  values: {
+    basis: string;
+    description: string;
+    type?: string;
+    treatment?: 'withheld' | 'redacted';
+    userId: string;
+  },
 ) {
   const now = new Date().toISOString();
+  const extra = {
+    ...(values.type !== undefined ? { privilege_type: values.type } : {}),
+    ...(values.treatment !== undefined ? { treatment: values.treatment } : {}),
+  };
   await db
     .insertInto('privilege_entries')
     .values({
       document_id: docId,
       basis: values.basis,
       description: values.description,
+      ...extra,
       updated_by: values.userId,
       updated_at: now,
     })
@@ -105,6 +118,7 @@ export async function upsertPrivilegeEntry(
       oc.column('document_id').doUpdateSet({
         basis: values.basis,
         description: values.description,
+        ...extra,
         updated_by: values.userId,
         updated_at: now,
       }),

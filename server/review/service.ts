@@ -60,8 +60,10 @@ function noteToApi(row: NoteRow): Note {
 
 function privilegeToApi(row: PrivilegeRow): PrivilegeEntry {
   return {
+    type: row.privilege_type,
     basis: row.basis,
     description: row.description,
+    treatment: row.treatment,
     updatedBy: row.updater_name
       ? { id: row.updated_by, name: row.updater_name, email: row.updater_email ?? '' }
       : null,
@@ -112,13 +114,18 @@ export async function readReview(
   const surfaces = new Map<string, Map<string, number>>();
   collectSurfaces(spans, surfaces);
 
-  const [codes, notes, privilege, parent, attachments, duplicates] = await Promise.all([
+  const [codes, notes, privilege, parent, attachments, duplicates, locked] = await Promise.all([
     appliedCodesOf(ctx.db, [doc.id]),
     listNotes(ctx.db, doc.id),
     findPrivilegeEntry(ctx.db, doc.id),
     doc.parent_id ? findRef(ctx.db, matterId, doc.parent_id) : Promise.resolve(undefined),
     listRefs(ctx.db, matterId, { parentId: doc.id }),
     listRefs(ctx.db, matterId, { duplicateOf: doc.id }),
+    ctx.db
+      .selectFrom('coding_locks')
+      .select('document_id')
+      .where('document_id', '=', doc.id)
+      .executeTakeFirst(),
   ]);
   await recordAudit(ctx.db, {
     actorId: actor.id,
@@ -144,7 +151,13 @@ export async function readReview(
           : null,
       author: doc.author,
       recipients: doc.recipients,
+      emailFrom: doc.email_from,
+      emailTo: doc.email_to,
+      emailCc: doc.email_cc,
+      emailBcc: doc.email_bcc,
       sentAt: doc.sent_at,
+      familyId: doc.family_id,
+      locked: locked !== undefined,
       pageCount: doc.page_count,
       size: doc.size,
       status: doc.extract_status,

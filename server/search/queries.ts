@@ -73,8 +73,9 @@ export function filterCondition(filters: SearchFilters): RawBuilder<SqlBool> {
     parts.push(
       sql`d.id IN (SELECT dc.document_id FROM document_custodians dc WHERE dc.custodian_id IN (${list(filters.custodianIds)}))`,
     );
-  if (filters.dateFrom) parts.push(sql`d.sent_at >= ${filters.dateFrom}`);
-  if (filters.dateTo) parts.push(sql`d.sent_at < ${nextDay(filters.dateTo)}`);
+  const dateColumn = filters.dateBasis === 'family' ? sql`d.family_date` : sql`d.sent_at`;
+  if (filters.dateFrom) parts.push(sql`${dateColumn} >= ${filters.dateFrom}`);
+  if (filters.dateTo) parts.push(sql`${dateColumn} < ${nextDay(filters.dateTo)}`);
   if (filters.docTypes?.length) parts.push(sql`d.doc_type IN (${list(filters.docTypes)})`);
   if (filters.codeIds?.length) {
     parts.push(
@@ -135,6 +136,7 @@ export async function duplicatesOf(
 const SORT_COLUMNS: Record<Exclude<SearchSort['field'], 'score'>, RawBuilder<unknown>> = {
   controlNumber: sql`d.control_number`,
   date: sql`d.sent_at`,
+  familyDate: sql`d.family_date`,
   title: sql`d.title COLLATE NOCASE`,
   custodian: sql`c.name COLLATE NOCASE`,
   docType: sql`d.doc_type`,
@@ -153,7 +155,8 @@ export async function sortedPage(
 ): Promise<number[]> {
   const column = SORT_COLUMNS[sort.field];
   const direction = sort.direction === 'asc' ? sql`ASC` : sql`DESC`;
-  const nullable = sort.field === 'date' || sort.field === 'custodian';
+  const nullable =
+    sort.field === 'date' || sort.field === 'custodian' || sort.field === 'familyDate';
   // The custodians join only when sorting by custodian (10,000 ids, 10,000 lookups).
   const custodians =
     sort.field === 'custodian' ? sql`LEFT JOIN custodians c ON c.id = d.custodian_id` : sql``;

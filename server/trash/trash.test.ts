@@ -223,9 +223,11 @@ describe('complete deletion of an uncoded document', () => {
 describe('coded documents go to the trash first', () => {
   it('asks for a reason, trashes, and lets a lead restore the document with its codes', async () => {
     const { id, sha256 } = docs['advice.txt'];
-    const coded = await reviewer
-      .put(`/api/matters/${matter.id}/documents/${id}/codes`)
-      .send({ codeIds: [privilegedCode] });
+    const coded = await reviewer.put(`/api/matters/${matter.id}/documents/${id}/codes`).send({
+      codeIds: [privilegedCode],
+      // A privilege code needs its type and basis (coding layouts).
+      privilege: { type: 'Attorney-client privilege', basis: 'Legal advice' },
+    });
     expect(coded.status, JSON.stringify(coded.body)).toBe(200);
 
     const noReason = await lead.delete(`/api/matters/${matter.id}/documents/${id}`);
@@ -308,9 +310,11 @@ describe('coded documents go to the trash first', () => {
   it('a coded attachment makes its parent need a reason; the family goes and comes back together', async () => {
     const parent = docs['thread.eml'];
     const child = docs['readings.txt'];
-    await reviewer
-      .put(`/api/matters/${matter.id}/documents/${child.id}/codes`)
-      .send({ codeIds: [privilegedCode] });
+    await reviewer.put(`/api/matters/${matter.id}/documents/${child.id}/codes`).send({
+      codeIds: [privilegedCode],
+      // A privilege code needs its type and basis (coding layouts).
+      privilege: { type: 'Attorney-client privilege', basis: 'Legal advice' },
+    });
     expect((await lead.delete(`/api/matters/${matter.id}/documents/${parent.id}`)).status).toBe(
       400,
     );

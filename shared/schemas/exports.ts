@@ -1,3 +1,4 @@
+import { PRIVILEGE_LOG_COLUMNS } from './privilege-log';
 import { z } from 'zod';
 import { QUERY_MAX_LENGTH } from '../limits';
 import { SEARCH_MODES, SORT_FIELDS, searchFiltersSchema } from './search';
@@ -75,15 +76,8 @@ export const RESULTS_CSV_COLUMNS = [
   'OCR',
 ] as const;
 
-export const PRIVILEGE_LOG_CSV_COLUMNS = [
-  'Control number',
-  'Date',
-  'Author',
-  'Recipients',
-  'Document type',
-  'Privilege basis',
-  'Description',
-] as const;
+/** The privilege log's columns (shared/schemas/privilege-log.ts), in order. */
+export const PRIVILEGE_LOG_CSV_COLUMNS = PRIVILEGE_LOG_COLUMNS.map(([, label]) => label);
 
 /** Codes in a results row are joined with this. */
 export const CODES_SEPARATOR = '; ';

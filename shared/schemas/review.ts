@@ -39,8 +39,11 @@ export interface Note {
 }
 
 export interface PrivilegeEntry {
+  /** Attorney-client privilege, work product, common interest, or the lead's own. */
+  type: string;
   basis: string;
   description: string;
+  treatment: 'withheld' | 'redacted';
   updatedBy: PersonRef | null;
   updatedAt: string;
 }
@@ -55,7 +58,15 @@ export interface ReviewDocument {
   custodian: { id: number; name: string } | null;
   author: string;
   recipients: string;
+  /** Header fields as the message states them (RFC 5322 3.6), display text. */
+  emailFrom: string;
+  emailTo: string;
+  emailCc: string;
+  emailBcc: string;
   sentAt: string | null;
+  familyId: number | null;
+  /** Quality control checked this document: its coding changes only after the lead unlocks it. */
+  locked: boolean;
   pageCount: number | null;
   size: number;
   status: string;
@@ -96,6 +107,8 @@ export interface NoteResponse {
 
 /** PUT /api/matters/:matterId/documents/:docId/privilege (documents.code) */
 export const privilegeEntrySchema = z.object({
+  type: text().trim().max(80, 'must be at most 80 characters').optional(),
+  treatment: z.enum(['withheld', 'redacted'], { error: 'must be withheld or redacted' }).optional(),
   basis: text()
     .trim()
     .max(PRIVILEGE_BASIS_MAX_LENGTH, `must be at most ${PRIVILEGE_BASIS_MAX_LENGTH} characters`),

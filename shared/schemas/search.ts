@@ -24,6 +24,8 @@ export const SORT_FIELDS = [
   'title',
   'custodian',
   'docType',
+  /** The top-level item's date, so an attachment sorts with its e-mail. */
+  'familyDate',
 ] as const;
 export type SortField = (typeof SORT_FIELDS)[number];
 
@@ -48,6 +50,8 @@ export const searchFiltersSchema = z
     custodianIds: idList.optional(),
     dateFrom: isoDate.optional(),
     dateTo: isoDate.optional(),
+    /** Which date dateFrom/dateTo test: the document's own (default) or its family's (the parent's). */
+    dateBasis: z.enum(['document', 'family'], { error: 'must be document or family' }).optional(),
     /** pdf, docx, email, html, text, markdown, ... (documents.docType). */
     docTypes: z
       .array(z.string().min(1).max(40), { error: 'must be a list of document types' })

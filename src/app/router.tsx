@@ -23,6 +23,9 @@ import * as matterHome from './routes/matter/home';
 import * as matterLayout from './routes/matter/layout';
 import * as matterProductions from './routes/matter/productions';
 import * as matterReview from './routes/matter/review';
+import * as matterBatches from './routes/matter/batches';
+import * as matterQc from './routes/matter/qc';
+import * as matterPrivilegeLog from './routes/matter/privilege-log';
 import * as matterSearch from './routes/matter/search';
 import * as matterTrash from './routes/matter/trash';
 import * as matterUpload from './routes/matter/upload';
@@ -151,6 +154,9 @@ export function createAppRouter(queryClient: QueryClient) {
               loader: matterActivity.clientLoader(queryClient),
               Component: matterActivity.ActivityRoute,
             },
+            { path: 'batches', Component: matterBatches.BatchesRoute },
+            { path: 'qc', Component: matterQc.QcRoute },
+            { path: 'privilege-log', Component: matterPrivilegeLog.PrivilegeLogRoute },
             {
               path: 'trash',
               loader: matterTrash.clientLoader(queryClient),

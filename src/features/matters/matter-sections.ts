@@ -83,6 +83,27 @@ export const MATTER_SECTIONS: readonly MatterSection[] = [
     summary: 'Every sign-in, invitation and access change, newest first.',
   },
   {
+    id: 'batches',
+    label: 'Batches',
+    path: 'batches',
+    permission: 'documents.code',
+    summary: 'Your review batches; for leads and attorneys, cutting, assigning and team progress.',
+  },
+  {
+    id: 'qc',
+    label: 'Quality control',
+    path: 'qc',
+    permission: 'qc.manage',
+    summary: 'Second-level review of first-level calls: samples, verdicts and overturn rates.',
+  },
+  {
+    id: 'privilege-log',
+    label: 'Privilege log',
+    path: 'privilege-log',
+    permission: 'privilege_log.edit',
+    summary: 'Withheld and redacted documents with their families; edit descriptions, export CSV.',
+  },
+  {
     id: 'trash',
     label: 'Trash',
     path: 'trash',

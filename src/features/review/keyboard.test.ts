@@ -12,17 +12,20 @@ function code(id: number, name: string, shortcut: string | null, sortOrder = id)
     marksPrivileged: false,
     archivedAt: null,
     documentCount: 0,
+    groupId: null,
+    colour: 'slate',
   };
 }
 
 describe('viewer keys for codes', () => {
-  it('gives the default code set the digits 1 to 5 in order', () => {
+  it('gives the default code set its digits', () => {
     const codes = DEFAULT_CODES.map((c, i) => code(i + 1, c.name, c.shortcut));
     const map = codeKeyMap(codes);
     expect([...map].map(([key, c]) => `${key}:${c.name}`)).toEqual([
       '1:Responsive',
       '2:Not responsive',
       '3:Privileged',
+      '6:Not privileged',
       '4:Hot',
       '5:Needs second look',
     ]);

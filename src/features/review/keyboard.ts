@@ -1,13 +1,15 @@
 import type { Code } from '../codes/api/get-codes';
 
 /** Keys the viewer keeps for itself; a code cannot take them as its shortcut. */
-export const RESERVED_KEYS = ['j', 'k', 'm', 'n'] as const;
+export const RESERVED_KEYS = ['j', 'k', 'm', 'n', 'u', 't'] as const;
 
 export const NAVIGATION_KEYS = [
   { keys: ['j', '→'], action: 'Next document' },
   { keys: ['k', '←'], action: 'Previous document' },
   { keys: ['m'], action: 'More like this document' },
   { keys: ['n'], action: 'Write a note' },
+  { keys: ['u'], action: 'Undo the last removal' },
+  { keys: ['t'], action: 'Switch page view and text' },
   { keys: ['Esc'], action: 'Back to the results' },
   { keys: ['?'], action: 'Show or hide this legend' },
 ] as const;

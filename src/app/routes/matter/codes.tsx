@@ -2,6 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { Notice, PageHeader, QueryBoundary } from '@/components/ui';
 import { codesQueryOptions, useCodes } from '@/features/codes/api/get-codes';
+import { CodeGroupsPanel } from '@/features/codes/components/code-groups-panel';
 import { CodeSetEditor } from '@/features/codes/components/code-set-editor';
 import { useMatterPermission } from '@/lib/authorization';
 import { parseMatterId, useMatterId } from './layout';
@@ -35,7 +36,17 @@ export function CodesRoute() {
         </Notice>
       ) : null}
       <QueryBoundary query={codes} errorTitle="The codes could not be loaded">
-        {(data) => <CodeSetEditor matterId={matterId} codes={data.codes} canManage={canManage} />}
+        {(data) => (
+          <>
+            <CodeGroupsPanel
+              matterId={matterId}
+              groups={data.groups}
+              codes={data.codes}
+              canManage={canManage}
+            />
+            <CodeSetEditor matterId={matterId} codes={data.codes} canManage={canManage} />
+          </>
+        )}
       </QueryBoundary>
     </div>
   );

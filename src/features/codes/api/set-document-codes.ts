@@ -4,9 +4,11 @@ import {
   useMutation,
   useQueryClient,
 } from '@tanstack/react-query';
-import type { DocumentCodesResponse } from '@shared/schemas/codes';
+import type { DocumentCodesResponse, PrivilegeFieldsReq } from '@shared/schemas/codes';
 import type { CodeRef } from '@shared/schemas/search';
 import { api } from '@/lib/api-client';
+import { batchesQueryKey } from '@/features/batches/api/keys';
+import { reviewsQueryKey } from '@/features/review/api/keys';
 import { codesQueryKey } from './get-codes';
 import {
   type CodingSnapshot,
@@ -20,9 +22,11 @@ export function setDocumentCodes(
   matterId: number,
   documentId: number,
   codeIds: number[],
+  privilege?: PrivilegeFieldsReq,
 ): Promise<DocumentCodesResponse> {
   return api.put<DocumentCodesResponse>(`/api/matters/${matterId}/documents/${documentId}/codes`, {
     codeIds,
+    privilege,
   });
 }
 
@@ -30,6 +34,8 @@ export interface SetDocumentCodesVars {
   documentId: number;
   /** The full new set, in display order (names for the optimistic view). */
   codes: CodeRef[];
+  /** Privilege type and basis, needed when a privilege code is newly chosen. */
+  privilege?: PrivilegeFieldsReq;
 }
 
 /**
@@ -39,11 +45,12 @@ export interface SetDocumentCodesVars {
  */
 export function setDocumentCodesMutationOptions(queryClient: QueryClient, matterId: number) {
   return mutationOptions<DocumentCodesResponse, Error, SetDocumentCodesVars, CodingSnapshot>({
-    mutationFn: ({ documentId, codes }) =>
+    mutationFn: ({ documentId, codes, privilege }) =>
       setDocumentCodes(
         matterId,
         documentId,
         codes.map((code) => code.id),
+        privilege,
       ),
     scope: { id: `coding-${matterId}` },
     onMutate: async ({ documentId, codes }) => {
@@ -61,7 +68,13 @@ export function setDocumentCodesMutationOptions(queryClient: QueryClient, matter
         new Map([[answer.documentId, answer.codes.map(({ id, name }) => ({ id, name }))]]),
       );
     },
-    onSettled: () => queryClient.invalidateQueries({ queryKey: codesQueryKey(matterId) }),
+    onSettled: async (answer, _error, vars) => {
+      await queryClient.invalidateQueries({ queryKey: codesQueryKey(matterId) });
+      // Family and duplicate propagation, the privilege entry and batch progress change too.
+      if (answer?.propagated?.length || vars.privilege)
+        await queryClient.invalidateQueries({ queryKey: reviewsQueryKey(matterId) });
+      await queryClient.invalidateQueries({ queryKey: batchesQueryKey(matterId) });
+    },
   });
 }
 

@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import { Button, Notice, Select, describeError } from '@/components/ui';
+import { PRIVILEGE_TYPES } from '@shared/schemas/codes';
+import { Button, Notice, Select, describeError, inputClass } from '@/components/ui';
 import { useBulkCodeDocuments } from '../api/bulk-code-documents';
 import { type Code, activeCodes } from '../api/get-codes';
 
@@ -18,8 +19,12 @@ export function BulkCodingBar({
   const usable = activeCodes(codes);
   const [codeId, setCodeId] = useState<string>('');
   const bulk = useBulkCodeDocuments(matterId);
+  const [withFamilies, setWithFamilies] = useState(false);
+  const [privilegeType, setPrivilegeType] = useState<string>(PRIVILEGE_TYPES[0]);
+  const [basis, setBasis] = useState('');
   const chosen = codeId || (usable[0] ? String(usable[0].id) : '');
   const count = selectedIds.length;
+  const marksPrivilege = usable.find((c) => String(c.id) === chosen)?.marksPrivileged ?? false;
 
   function apply(kind: 'add' | 'remove') {
     if (!chosen) return;
@@ -27,6 +32,10 @@ export function BulkCodingBar({
       documentIds: selectedIds,
       add: kind === 'add' ? [Number(chosen)] : [],
       remove: kind === 'remove' ? [Number(chosen)] : [],
+      withFamilies,
+      ...(kind === 'add' && marksPrivilege
+        ? { privilege: { type: privilegeType, basis: basis.trim() } }
+        : {}),
     });
   }
 
@@ -50,6 +59,37 @@ export function BulkCodingBar({
           onChange={(event) => setCodeId(event.target.value)}
           data-testid="bulk-code"
         />
+        {marksPrivilege ? (
+          <>
+            <select
+              aria-label="Privilege type"
+              className={`${inputClass} w-48`}
+              value={privilegeType}
+              onChange={(e) => setPrivilegeType(e.target.value)}
+            >
+              {PRIVILEGE_TYPES.map((t) => (
+                <option key={t}>{t}</option>
+              ))}
+            </select>
+            <input
+              aria-label="Privilege basis"
+              placeholder="Basis (required)"
+              className={`${inputClass} w-56`}
+              value={basis}
+              onChange={(e) => setBasis(e.target.value)}
+              maxLength={200}
+            />
+          </>
+        ) : null}
+        <label className="flex items-center gap-1.5">
+          <input
+            type="checkbox"
+            checked={withFamilies}
+            onChange={(e) => setWithFamilies(e.target.checked)}
+            data-testid="bulk-with-families"
+          />
+          With families
+        </label>
         <Button
           size="sm"
           variant="primary"

@@ -1,0 +1,2 @@
+export const batchesQueryKey = (matterId: number) =>
+  ['matters', 'detail', matterId, 'batches'] as const;

@@ -1,0 +1,1 @@
+export const qcQueryKey = (matterId: number) => ['matters', 'detail', matterId, 'qc'] as const;
