@@ -127,7 +127,7 @@ describe('cutting batches', () => {
       t.ctx,
       m.matter.id,
       { id: m.matter.lead.id, email: m.matter.lead.email, ip: null },
-      { name: 'Validation sample', kind: 'validation', documentIds: [m.ids.c2, m.ids.m4] },
+      { name: 'QC sample', kind: 'qc', documentIds: [m.ids.c2, m.ids.m4] },
     );
     expect(skipped).toBe(0);
     const rows = (await placements()).filter((r) => r.batch_id === batch.id);
@@ -137,9 +137,19 @@ describe('cutting batches', () => {
         t.ctx,
         m.matter.id,
         { id: m.matter.lead.id, email: m.matter.lead.email, ip: null },
-        { name: 'Again', kind: 'validation', documentIds: [m.ids.c3] },
+        { name: 'Again', kind: 'qc', documentIds: [m.ids.c3] },
       ),
     ).rejects.toThrow('Every one of these documents is already in an open batch.');
+    // Validation samples are statistical draws: two may share a document.
+    for (const name of ['Prevalence sample', 'Elusion sample']) {
+      const sample = await createBatchFromDocuments(
+        t.ctx,
+        m.matter.id,
+        { id: m.matter.lead.id, email: m.matter.lead.email, ip: null },
+        { name, kind: 'validation', documentIds: [m.ids.c3], keepFamilies: false },
+      );
+      expect(sample.skipped).toBe(0);
+    }
   });
 });
 

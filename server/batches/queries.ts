@@ -91,7 +91,7 @@ export async function insertBatch(
           batch_id: row.id,
           document_id: documentId,
           position: i + j + 1,
-          open_kind: values.kind,
+          open_kind: values.kind === 'validation' ? null : values.kind,
         })),
       )
       .execute();

@@ -153,7 +153,12 @@ async function planBatches(db: Db, matterId: number, input: BatchPlanInput) {
   } else {
     units = ids.map((id) => [id]);
   }
-  const placed = await openPlacements(db, units.flat(), input.kind);
+  // A validation sample is a statistical draw: two samples may share documents, so its
+  // batches stand outside the one-open-batch rule (insertBatch leaves open_kind empty).
+  const placed =
+    input.kind === 'validation'
+      ? new Set<number>()
+      : await openPlacements(db, units.flat(), input.kind);
   const free = units.filter((u) => !u.some((id) => placed.has(id)));
   const skipped = units
     .filter((u) => u.some((id) => placed.has(id)))

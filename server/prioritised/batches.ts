@@ -1,6 +1,7 @@
 import { randomInt } from 'node:crypto';
 import type { PrioritisedBatchResponse } from '../../shared/schemas/prioritised';
 import { recordAudit } from '../audit/record';
+import { createBatchFromDocuments } from '../batches/service';
 import type { AppContext } from '../context';
 import { prioritisedSelection, type Actor } from './service';
 
@@ -17,9 +18,17 @@ export async function createPrioritisedBatch(
     randomShare: input.randomShare,
     seed,
   });
-  // Review batches (review_batches) are not on this branch yet: the selection is
-  // returned and audited, with batchId null.
-  const batchId: number | null = null;
+  // A review batch in ranked order; families stay whole as in every review batch, and
+  // documents already in an open review batch are left out by createBatchFromDocuments.
+  const { batch } = await createBatchFromDocuments(ctx, matterId, actor, {
+    name: input.name ?? `Prioritised: next ${documents.length} (model ${model.version})`,
+    kind: 'review',
+    documentIds: documents.map((d) => d.documentId),
+    keepFamilies: true,
+    source: `prioritised review, model ${model.version}`,
+    sourceDetail: { seed, randomShare: input.randomShare, modelVersion: model.version },
+  });
+  const batchId = batch.id;
   await recordAudit(ctx.db, {
     actorId: actor.id,
     actorEmail: actor.email,

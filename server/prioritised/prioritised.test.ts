@@ -6,6 +6,9 @@ import { cranfieldAvailable, readCranfield } from '../engine/index';
 import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
 import { formatControlNumber } from '../documents/control-numbers';
 import { indexMatter } from '../search/test-fixture';
+import { prioritisedSelection } from './service';
+
+const matterIdOf = (base: string) => Number(/matters\/(\d+)/.exec(base)![1]);
 
 const present = cranfieldAvailable();
 
@@ -193,8 +196,26 @@ describe.runIf(present)('prioritised review (learned ranking from codes)', () =>
     expect(first.status).toBe(201);
     expect(first.body.documents).toHaveLength(20);
     expect(first.body.documents.filter((d: { random: boolean }) => d.random)).toHaveLength(2);
+    // The selection is a review batch holding those documents (families kept whole).
+    expect(first.body.batchId).toEqual(expect.any(Number));
+    const inBatch = await t.ctx.db
+      .selectFrom('review_batch_documents')
+      .select('document_id')
+      .where('batch_id', '=', first.body.batchId)
+      .execute();
+    const batchIds = new Set(inBatch.map((r) => r.document_id));
+    for (const d of first.body.documents as { documentId: number }[])
+      expect(batchIds.has(d.documentId)).toBe(true);
+    // The same seed draws the same selection; handing it out twice is refused, since a
+    // document sits in at most one open review batch.
+    const redrawn = await prioritisedSelection(t.ctx, matterIdOf(base), {
+      size: 20,
+      randomShare: 0.1,
+      seed: 11,
+    });
+    expect(redrawn.documents).toEqual(first.body.documents);
     const again = await lead.post(`${base}/prioritised/batches`).send({ size: 20, seed: 11 });
-    expect(again.body.documents).toEqual(first.body.documents);
+    expect(again.status).toBe(409);
     const bad = await lead.post(`${base}/prioritised/batches`).send({ size: 0 });
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toMatch(/size/);

@@ -86,9 +86,17 @@ describe('validation samples', () => {
       size: expected,
       seed: 20141,
       population,
-      batchId: null,
+      batchId: expect.any(Number),
     });
+    // The sample is a validation batch holding exactly the drawn documents, in order.
+    const batchDocs = await t.ctx.db
+      .selectFrom('review_batch_documents')
+      .select('document_id')
+      .where('batch_id', '=', res.body.batchId)
+      .orderBy('position')
+      .execute();
     const drawn = await sampleDocs(res.body.sampleId);
+    expect(batchDocs.map((d) => d.document_id)).toEqual(drawn);
     expect(drawn).toHaveLength(expected);
     expect(new Set(drawn).size).toBe(expected);
     const producedSet = new Set(ids.slice(0, produced));
