@@ -2,6 +2,7 @@ import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
+import { readdirSync } from 'node:fs';
 
 // Dependencies run one way: src/ and server/ may import shared/ and (server only)
 // server/engine/ through its one door, server/engine/index.ts; shared/ and the engine
@@ -19,6 +20,24 @@ const noImport = (patterns, message, extra = []) => ({
   ],
 });
 const noAlias = [{ group: aliases, message: aliasMessage }];
+
+// The client's own direction: src/ never imports the server, the engine or migrations.
+const clientRules = [
+  ['**/server/**', '**/engine/**', '**/migrations/**'],
+  'The client talks to the server over HTTP only.',
+];
+// A feature uses another only through its public surface: its api/ hooks and its
+// index.ts (`@/features/jobs`), never its components/, hooks/ or other files.
+const features = readdirSync(new URL('./src/features/', import.meta.url), { withFileTypes: true })
+  .filter((entry) => entry.isDirectory())
+  .map((entry) => entry.name);
+const featureBoundary = (self) => [
+  {
+    regex: `^@/features/(?!${self}/)[^/]+/(?!api/).+`,
+    message:
+      "Import another feature through its api/ files or its index.ts ('@/features/<name>'), not its internals.",
+  },
+];
 
 export default tseslint.config(
   {
@@ -60,12 +79,13 @@ export default tseslint.config(
     rules: {
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'warn',
-      ...noImport(
-        ['**/server/**', '**/engine/**', '**/migrations/**'],
-        'The client talks to the server over HTTP only.',
-      ),
+      ...noImport(...clientRules),
     },
   },
+  ...features.map((feature) => ({
+    files: [`src/features/${feature}/**/*.{ts,tsx}`],
+    rules: noImport(...clientRules, featureBoundary(feature)),
+  })),
   {
     files: ['shared/**/*.ts'],
     rules: noImport(

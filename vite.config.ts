@@ -16,7 +16,7 @@ const apiPort = process.env.QUARRY_API_PORT ?? '3001';
 export default defineConfig({
   plugins: [react(), tailwindcss()],
   resolve: { alias: clientAliases },
-  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1500 },
+  build: { outDir: 'dist', emptyOutDir: true },
   server: {
     port: 5173,
     proxy: { '/api': { target: `http://localhost:${apiPort}`, changeOrigin: false } },

@@ -1,5 +1,5 @@
 import { defineConfig } from 'vitest/config';
-import { clientAliases } from './vite.config';
+import { clientAliases } from './vite.config.ts';
 
 // Unit and API tests run in Node against real, freshly migrated SQLite files.
 // Browser tests (tests/browser) drive Debian's Chromium through playwright-core.

@@ -1,6 +1,5 @@
 import { resolve } from 'node:path';
 import { describe, expect, test } from 'vitest';
-import { UPLOAD_DEFAULTS } from '../shared/limits';
 import { ConfigError, devPagesEnabled, loadConfig } from './config';
 
 describe('loadConfig', () => {
@@ -16,8 +15,17 @@ describe('loadConfig', () => {
     expect(config.devMode).toBe(false);
     expect(config.invitationTtlDays).toBe(7);
     expect(config.sessionTtlHours).toBe(12);
-    expect(config.upload).toEqual(UPLOAD_DEFAULTS);
+    // The documented upload limits, written out (not the constant the config reads).
+    expect(config.upload).toEqual({
+      maxFileBytes: 100 * 1024 * 1024,
+      maxFilesPerRequest: 500,
+      maxRequestBytes: 1024 * 1024 * 1024,
+      maxArchiveEntries: 10_000,
+      maxArchiveUnpackedBytes: 2 * 1024 * 1024 * 1024,
+      maxArchiveDepth: 3,
+    });
     expect(config.rebuildFoldInShare).toBe(0.1);
+    expect(config.rebuildDrift).toBe(0.35);
     expect(devPagesEnabled(config)).toBe(true);
   });
 
@@ -54,6 +62,7 @@ describe('loadConfig', () => {
     [{ QUARRY_MAX_FILE_BYTES: '-5' }, 'QUARRY_MAX_FILE_BYTES'],
     [{ QUARRY_PUBLIC_ORIGIN: 'not a url' }, 'QUARRY_PUBLIC_ORIGIN'],
     [{ QUARRY_REBUILD_FOLD_IN_SHARE: '2' }, 'QUARRY_REBUILD_FOLD_IN_SHARE'],
+    [{ QUARRY_REBUILD_DRIFT: '0' }, 'QUARRY_REBUILD_DRIFT'],
   ])('a bad value names the variable: %o', (env, variable) => {
     expect(() => loadConfig(env)).toThrow(ConfigError);
     expect(() => loadConfig(env)).toThrow(new RegExp(`^${variable}: `));

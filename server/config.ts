@@ -1,6 +1,7 @@
 import { join, resolve } from 'node:path';
 import { z } from 'zod';
 import { UPLOAD_DEFAULTS } from '../shared/limits';
+import { DEFAULT_HEALTH_THRESHOLDS } from './engine/index';
 
 /** Everything the server reads from the environment, validated once at start-up. */
 export interface Config {
@@ -39,6 +40,8 @@ export interface Config {
   };
   /** Share of folded-in documents above which a rebuild of the concept space is queued. */
   rebuildFoldInShare: number;
+  /** Mean fold-in drift above which the index health view advises a rebuild. */
+  rebuildDrift: number;
   /** Quiet logs (tests). */
   logLevel: string;
 }
@@ -99,6 +102,7 @@ const envSchema = z.object({
   QUARRY_MAX_ARCHIVE_UNPACKED_BYTES: int(1).default(UPLOAD_DEFAULTS.maxArchiveUnpackedBytes),
   QUARRY_MAX_ARCHIVE_DEPTH: int(0).default(UPLOAD_DEFAULTS.maxArchiveDepth),
   QUARRY_REBUILD_FOLD_IN_SHARE: z.coerce.number().gt(0).max(1).default(0.1),
+  QUARRY_REBUILD_DRIFT: z.coerce.number().gt(0).max(1).default(DEFAULT_HEALTH_THRESHOLDS.drift),
   QUARRY_LOG_LEVEL: z
     .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'])
     .default('info'),
@@ -154,6 +158,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       maxArchiveDepth: e.QUARRY_MAX_ARCHIVE_DEPTH,
     },
     rebuildFoldInShare: e.QUARRY_REBUILD_FOLD_IN_SHARE,
+    rebuildDrift: e.QUARRY_REBUILD_DRIFT,
     logLevel: e.QUARRY_LOG_LEVEL,
   };
 }

@@ -1,7 +1,7 @@
 // `npm run bench [-- --quick]`: the concept engine's benchmark report.
 // For seeded synthetic collections (scripts/bench/synthetic.ts) of 10k, 50k and 100k documents
 // (10k only with --quick): matrix build, truncated SVD at k = 100 and 300, save and load
-// through the engine's SQLite persistence (server/engine/index/persist.ts), query latency over
+// through the server's SQLite persistence (server/indexing/persist.ts, over the engine's BLOB codec), query latency over
 // 200 fold-in + cosine queries, peak memory; and, when /usr/bin/python3 (or python3)
 // has SciPy and scikit-learn, the same matrices through svds(solver='propack') and
 // randomized_svd(n_iter=2, n_oversamples=20) for time and accuracy ratios.
@@ -20,7 +20,8 @@ import { frobeniusNormSq, nnzOf, type CsrMatrix } from '../../server/engine/inde
 import { writeMatrixMarket } from '../../server/engine/index';
 import { applyWeights, globalWeights } from '../../server/engine/index';
 import { ConceptSpace } from '../../server/engine/index';
-import { loadConceptSpace, saveConceptSpace, type IndexTables } from '../../server/engine/index';
+import { loadConceptSpace, saveConceptSpace } from '../../server/indexing/persist';
+import type { Database } from '../../server/db/schema';
 import { ANALYZER_VERSION } from '../../server/engine/index';
 import { migrations } from '../../migrations/index';
 import { mulberry32 } from '../../server/engine/index';
@@ -117,7 +118,7 @@ async function saveAndLoad(space: ConceptSpace) {
   const sqlite = new SQLite(join(dir, 'bench.db'));
   sqlite.pragma('journal_mode = WAL');
   sqlite.pragma('foreign_keys = ON');
-  const db = new Kysely<IndexTables>({ dialect: new SqliteDialect({ database: sqlite }) });
+  const db = new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) });
   try {
     const migrator = new Migrator({ db, provider: { getMigrations: async () => migrations } });
     const { error } = await migrator.migrateToLatest();
@@ -150,7 +151,7 @@ async function saveAndLoad(space: ConceptSpace) {
       loadMs,
       vectorMb,
       loadMsPer100Mb: loadMs / (vectorMb / 100),
-      via: 'server/engine/index/persist.ts (Kysely on better-sqlite3, Float32 BLOBs)',
+      via: 'server/indexing/persist.ts (Kysely on better-sqlite3; Float32 BLOBs in the engine codec)',
     };
   } finally {
     await db.destroy();

@@ -1,4 +1,4 @@
-// Search API latency (issue 5): p50/p95 end to end through the HTTP API on a synthetic
+// Search API latency: p50/p95 end to end through the HTTP API on a synthetic
 // matter (default 100,000 documents), written to docs/PERFORMANCE.md under
 // "Search API latency" (only that section is replaced). A script, not a test:
 //   npm run bench:search [-- --docs 100000 --k 200 --queries 60 --accurate-svd --data-dir DIR]
@@ -13,9 +13,8 @@
 import { writeFileSync, readFileSync, existsSync, mkdirSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import { join } from 'node:path';
-import type { Kysely } from 'kysely';
 import { ConceptSpace } from '../../server/engine/index';
-import { saveConceptSpace, type IndexTables } from '../../server/engine/index';
+import { saveConceptSpace } from '../../server/indexing/persist';
 import { mulberry32 } from '../../server/engine/index';
 import { createTestApp, type TestApp } from '../../tests/helpers';
 
@@ -188,12 +187,10 @@ async function buildMatter(t: TestApp, savedAt: string | undefined): Promise<Bui
       : { svd: { method: 'randomized' as const, powerIterations: 2, oversample: 20 } }),
   });
   const buildMs = performance.now() - t1;
-  const indexId = await saveConceptSpace(
-    t.ctx.db as unknown as Kysely<IndexTables>,
-    space,
-    diagnostics,
-    { matterId: matter.id, version: 1 },
-  );
+  const indexId = await saveConceptSpace(t.ctx.db, space, diagnostics, {
+    matterId: matter.id,
+    version: 1,
+  });
   await t.ctx.db
     .updateTable('matters')
     .set({ current_index_id: indexId })
@@ -370,7 +367,7 @@ async function measure(t: TestApp, built: Built, started: number, record: boolea
     `Search term report, 20 terms (Boolean, phrase, proximity, wildcard and fielded terms), ${REPORT_RUNS} runs end to end: p50 ${f(pct(reportMs, 50))} ms, slowest ${f(reportMs.at(-1)!)} ms (target: under 3 s at 100,000 documents).`,
     '',
     N_DOCS >= 100_000
-      ? `Target (issue 5): p95 under 150 ms end to end on 100,000 documents. ${pct(all, 95) < 150 ? 'Met' : 'Not met'} on this run.`
+      ? `Target: p95 under 150 ms end to end on 100,000 documents. ${pct(all, 95) < 150 ? 'Met' : 'Not met'} on this run.`
       : `This was a smaller run (${N_DOCS.toLocaleString('en')} documents) than the target's 100,000; run \`npm run bench:search\` for the real figure.`,
     `Total bench time ${((performance.now() - started) / 1000).toFixed(0)} s.`,
     '',

@@ -1,4 +1,4 @@
-// Codes, coding, notes, privilege entries and saved searches over HTTP (issue 5).
+// Codes, coding, notes, privilege entries and saved searches over HTTP.
 // The roles table is shared/roles.ts (the product blueprint's roles); expectations
 // here are written out from it.
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';

@@ -1,4 +1,4 @@
-// The concept-space API over HTTP (issue 6): shapes, access, labels kept with the index
+// The concept-space API over HTTP: shapes, access, labels kept with the index
 // version, one map point per indexed document, k-means groupings usable as a filter,
 // health figures. Independent checks: Eckart-Young (a rank-3 rebuild of the same matrix
 // has the leading three singular values of the rank-k build, so the same cumulative

@@ -3,14 +3,8 @@
 // (grouping-worker.mjs) with its own SQLite connection: over 100,000 documents it takes
 // seconds, which must not hold up the thread that answers requests. One grouping per
 // (version, groups, seed): the same settings give the same stored grouping.
-import type { Kysely } from 'kysely';
-import {
-  kmeans,
-  loadConceptSpace,
-  topTermsOfVector,
-  type ConceptSpace,
-  type IndexTables,
-} from '../engine/index';
+import { kmeans, topTermsOfVector, type ConceptSpace } from '../engine/index';
+import { loadConceptSpace } from '../indexing/persist';
 import { GROUP_TOP_TERMS } from '../../shared/schemas/concepts';
 import { openDatabase, type Db } from '../db/database';
 import { findGroupingBySettings, insertGrouping } from './queries';
@@ -119,7 +113,7 @@ export async function groupingInWorker(
       request.seed,
     );
     if (existing) return existing.id;
-    const space = await loadConceptSpace(db as unknown as Kysely<IndexTables>, request.indexId);
+    const space = await loadConceptSpace(db, request.indexId);
     return await computeGrouping(db, space, request);
   } finally {
     await db.destroy();

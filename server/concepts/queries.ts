@@ -1,4 +1,4 @@
-// All Kysely for the concept-space views (issue 6). Every function takes `db` first.
+// All Kysely for the concept-space views. Every function takes `db` first.
 import { sql, type Kysely, type Transaction } from 'kysely';
 import type { Database } from '../db/schema';
 

@@ -166,18 +166,10 @@ function groupToApi(row: {
   return { id: row.id, number: row.number, size: row.size, topTerms };
 }
 
-/** Rebuild thresholds: drift from QUARRY_REBUILD_DRIFT (default 0.35), the fold-in share from the config. */
-export function healthThresholds(ctx: AppContext, env = process.env): HealthThresholds {
-  const raw = env.QUARRY_REBUILD_DRIFT;
-  let drift = DEFAULT_HEALTH_THRESHOLDS.drift;
-  if (raw !== undefined && raw !== '') {
-    const parsed = Number(raw);
-    if (!(parsed > 0 && parsed <= 1))
-      throw new Error(`QUARRY_REBUILD_DRIFT must be a number in (0, 1], got "${raw}"`);
-    drift = parsed;
-  }
+/** Rebuild thresholds: drift and fold-in share from the config (QUARRY_REBUILD_*). */
+export function healthThresholds(ctx: AppContext): HealthThresholds {
   return {
-    drift,
+    drift: ctx.config.rebuildDrift,
     foldedShare: ctx.config.rebuildFoldInShare,
     conditionNumber: DEFAULT_HEALTH_THRESHOLDS.conditionNumber,
   };

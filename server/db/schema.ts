@@ -1,10 +1,4 @@
 import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
-import type {
-  IndexBlobsTable,
-  IndexDocsTable,
-  IndexTermsTable,
-  IndexVersionsTable as EngineIndexVersionsTable,
-} from '../engine/index';
 
 // Table types for Kysely. Rows of these types never leave the server: each
 // feature's service maps them to the API types in shared/schemas.
@@ -217,15 +211,58 @@ export interface JobsTable {
 
 export type IndexStatus = 'building' | 'ready' | 'failed' | 'superseded';
 
-// The index tables' shapes are the engine's (server/engine/index/persist.ts reads and writes
-// them); the server only narrows the status to its known values.
-export interface IndexVersionsTable extends Omit<EngineIndexVersionsTable, 'status'> {
+/** A concept space build of a matter (server/indexing/persist.ts writes and reads it). */
+export interface IndexVersionsTable {
+  id: Generated<number>;
+  matter_id: number;
+  version: number;
   status: IndexStatus;
+  k: number;
+  weighting: string;
+  n_docs: Generated<number>;
+  n_terms: Generated<number>;
+  nnz: Generated<number>;
+  /** Float64 little-endian (server/engine/index/blob-codec.ts). */
+  singular_values: Uint8Array | null;
+  frobenius_sq: number | null;
+  energy: number | null;
+  orthogonality_u: number | null;
+  orthogonality_v: number | null;
+  build_ms: number | null;
+  peak_rss_mb: number | null;
+  /** The space's settings with the codec's format version (JSON). */
+  params: Generated<string>;
+  error: string | null;
+  job_id: number | null;
+  requested_by: string | null;
+  created_at: string;
+  completed_at: string | null;
 }
 
-export type { IndexBlobsTable, IndexDocsTable, IndexTermsTable };
+export interface IndexTermsTable {
+  index_id: number;
+  term_id: number;
+  term: string;
+  df: number;
+  global_weight: number;
+  vector: Uint8Array;
+}
 
-/** A matter lead's name for a concept dimension of an index version (issue 6). */
+export interface IndexDocsTable {
+  index_id: number;
+  document_id: number;
+  vector: Uint8Array;
+  folded_in: Generated<number>;
+}
+
+/** One BLOB per matrix, for fast loading (migrations/2026_12_01_0100_index_blobs.ts). */
+export interface IndexBlobsTable {
+  index_id: number;
+  name: string;
+  data: Uint8Array;
+}
+
+/** A matter lead's name for a concept dimension of an index version. */
 export interface IndexDimensionLabelsTable {
   index_id: number;
   dim: number;

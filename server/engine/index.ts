@@ -31,16 +31,18 @@ export {
   type WeightedTerms,
 } from './index/concept-space';
 export {
-  saveConceptSpace,
-  saveFoldedDocuments,
-  loadConceptSpace,
+  blobOf,
+  copyVector,
+  decodeDocumentBlobs,
+  decodeParams,
   decodeSingularValues,
-  diagnosticsColumns,
+  decodeVocabulary,
+  encodeDiagnostics,
+  encodeParams,
+  encodeSpaceBlobs,
   INDEX_FORMAT_VERSION,
-  type IndexTables,
-  type SaveTarget,
-  type SaveOptions,
-} from './index/persist';
+  typedFrom,
+} from './index/blob-codec';
 export { topCosine, type TopN, type TopNOptions } from './search/top-n';
 export {
   toFtsMatchExpression,
@@ -102,12 +104,6 @@ export {
 } from './eval/evaluate';
 export { cranfieldAvailable, cranfieldDir, readCranfield } from './eval/cranfield';
 export { partsFor } from './eval/evaluate';
-export {
-  type IndexBlobsTable,
-  type IndexDocsTable,
-  type IndexTermsTable,
-  type IndexVersionsTable,
-} from './index/persist';
 export { columnExtremes, columnLargestAbs, topTermsOfVector } from './insights/dimensions';
 export { projectionDrift, summariseDrift, type DriftSummary } from './insights/drift';
 export { assessHealth, DEFAULT_HEALTH_THRESHOLDS } from './insights/health';

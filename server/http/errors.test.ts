@@ -1,4 +1,4 @@
-// The API's error contract (issue 2, "Errors"): every error is JSON
+// The API's error contract (docs/ARCHITECTURE.md "Errors"): every error is JSON
 // {"error": {"code", "message", "field"?}} with the right status, never an HTML page or
 // a stack trace. Status codes per RFC 9110 section 15.5 (400, 401, 403, 404, 409, 413)
 // and RFC 6585 (429).

@@ -2,12 +2,11 @@
 // with its own SQLite connection (WAL lets the API keep reading and writing meanwhile).
 // It writes the new version's vectors with status 'building'; the main thread switches
 // the matter over to it in one transaction, so a build that dies never replaces anything.
-import type { Kysely } from 'kysely';
 import { ConceptSpace } from '../engine/index';
-import { saveConceptSpace, type IndexTables } from '../engine/index';
 import type { Weighting } from '../engine/index';
 import { openDatabase } from '../db/database';
 import { listIndexableTexts } from '../documents/queries';
+import { saveConceptSpace } from './persist';
 
 export interface BuildRequest {
   dbFile: string;
@@ -51,7 +50,7 @@ export async function buildIndexVersion(
     );
     onProgress(0.9);
     await saveConceptSpace(
-      db as unknown as Kysely<IndexTables>,
+      db,
       space,
       diagnostics,
       { indexId: request.indexId },

@@ -5,8 +5,8 @@
 // document's text costs time that grows with its length, so it never runs on the thread
 // that answers requests; the main thread only stores the vectors and adds them to its
 // own copy of the space.
-import type { Kysely } from 'kysely';
-import { loadConceptSpace, type ConceptSpace, type IndexTables } from '../engine/index';
+import type { ConceptSpace } from '../engine/index';
+import { loadConceptSpace } from './persist';
 import { openDatabase, type OpenedDatabase } from '../db/database';
 import { listExtractedNotInIndex } from '../documents/queries';
 
@@ -41,7 +41,7 @@ export async function foldWaiting(request: FoldRequest): Promise<FoldedVector[]>
     cached = null; // free the previous version before loading the next
     cached = {
       indexId: request.indexId,
-      space: await loadConceptSpace(db as unknown as Kysely<IndexTables>, request.indexId),
+      space: await loadConceptSpace(db, request.indexId),
     };
   }
   return cached.space

@@ -3,12 +3,12 @@
 // worker thread (fold-pool.ts), and full rebuilds in a worker thread (build-runner.ts)
 // that replace the serving version in one transaction. Other features (search) call
 // getSpace / getIndex.
-import type { Kysely } from 'kysely';
 import type { Logger } from 'pino';
 import type { ConceptSpace } from '../engine/index';
-import { decodeSingularValues, saveFoldedDocuments, type IndexTables } from '../engine/index';
+import { decodeSingularValues } from '../engine/index';
 import type { Weighting } from '../engine/index';
 import { prepareForSearch } from '../engine/index';
+import { saveFoldedDocuments } from './persist';
 import {
   automaticK,
   type IndexStateResponse,
@@ -116,10 +116,6 @@ export class IndexService {
     this.jobs = jobs;
   }
 
-  private get indexDb(): Kysely<IndexTables> {
-    return this.db as unknown as Kysely<IndexTables>;
-  }
-
   /** Runs `work` after earlier work for the same matter (fold-ins and switches never interleave). */
   private withLock<T>(matterId: number, work: () => Promise<T>): Promise<T> {
     return this.serving.withLock(matterId, work);
@@ -190,7 +186,7 @@ export class IndexService {
         ),
       );
       const folded = vectors.filter((v) => alive.has(v.id));
-      await saveFoldedDocuments(this.indexDb, loaded.indexId, folded);
+      await saveFoldedDocuments(this.db, loaded.indexId, folded);
       for (const f of folded) loaded.space.putVector(f.id, f.vector, true);
       prepareForSearch(loaded.space); // the new vectors reset the search caches
       this.logger.info({ matterId, documents: folded.length }, 'documents folded into the index');

@@ -2,13 +2,8 @@
 // use (one load at a time per matter), dropped when a newer version takes over or
 // documents are deleted, and a per-matter lock so fold-ins and version switches never
 // interleave.
-import type { Kysely } from 'kysely';
-import {
-  loadConceptSpace,
-  prepareForSearch,
-  type ConceptSpace,
-  type IndexTables,
-} from '../engine/index';
+import { prepareForSearch, type ConceptSpace } from '../engine/index';
+import { loadConceptSpace } from './persist';
 import type { Db } from '../db/database';
 import { currentIndexIdOf, findIndexVersion } from './queries';
 
@@ -48,7 +43,7 @@ export class ServingCache {
       pending = (async () => {
         const row = await findIndexVersion(this.db, indexId);
         if (!row) return null;
-        const space = await loadConceptSpace(this.db as unknown as Kysely<IndexTables>, indexId);
+        const space = await loadConceptSpace(this.db, indexId);
         prepareForSearch(space);
         const loaded = { indexId, version: row.version, space };
         this.cache.set(matterId, loaded);

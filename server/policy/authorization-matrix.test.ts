@@ -1,13 +1,14 @@
 // Authorization matrix over HTTP. For EVERY mounted API route and every kind of caller
 // (each matter role, a signed-in non-member, a firm admin who is not a member, and an
-// anonymous caller) the expected outcome is computed from the route's declared access
-// and the permission table in shared/roles.ts (the roles table of the product
-// blueprint), then checked against a real request. A route mounted without a
-// declaration fails the inventory test, so new features are covered automatically.
+// anonymous caller) the expected outcome comes from the table written out by hand in
+// authorization-matrix.expected.ts (route -> who may call it), independent of the
+// routes' own declarations and of policy.ts, and is checked against a real request. A
+// route mounted without a declaration fails the inventory test, and a declared route
+// without a row in the table fails by name, so new routes cannot go unchecked.
 import { randomBytes } from 'node:crypto';
 import type { Router } from 'express';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { FIRM_PERMISSIONS, MATTER_POLICY, MATTER_ROLES, type MatterRole } from '../../shared/roles';
+import { FIRM_PERMISSIONS, MATTER_ROLES, type MatterRole } from '../../shared/roles';
 import {
   createTestApp,
   type Agent,
@@ -18,6 +19,7 @@ import {
 import { MATTER_NOT_FOUND_MESSAGE } from '../http/errors';
 import type { AnyRouteSpec } from '../http/route';
 import { apiRoutes } from '../routes';
+import { EXPECTED_ACCESS, type ExpectedAccess } from './authorization-matrix.expected';
 import { decide, describeAccess, type Access } from './policy';
 import { listMountedRoutes } from './route-inventory';
 
@@ -26,14 +28,26 @@ const CALLERS: Caller[] = [...MATTER_ROLES, 'non-member', 'firm-admin', 'anonymo
 
 type Outcome = 'allowed' | 401 | 403 | 404;
 
-/** Written out from the rules (docs/ARCHITECTURE.md "Access rules"), independent of policy.ts. */
-function expectedOutcome(access: Access, caller: Caller): Outcome {
-  if (access === 'public') return 'allowed';
+const TABLE_FILE = 'server/policy/authorization-matrix.expected.ts';
+const routeKey = (spec: AnyRouteSpec) => `${spec.method.toUpperCase()} ${spec.path}`;
+
+/** The outcome a caller gets under a row of the table (docs/ARCHITECTURE.md "Access rules"). */
+function expectedOutcome(row: ExpectedAccess, caller: Caller): Outcome {
+  if (row.kind === 'public') return 'allowed';
   if (caller === 'anonymous') return 401;
-  if (access === 'signed-in') return 'allowed';
-  if ('firm' in access) return caller === 'firm-admin' ? 'allowed' : 403;
+  if (row.kind === 'signed-in') return 'allowed';
+  if (row.kind === 'firm-admin') return caller === 'firm-admin' ? 'allowed' : 403;
   if (caller === 'non-member' || caller === 'firm-admin') return 404;
-  return (MATTER_POLICY[access.matter] as readonly string[]).includes(caller) ? 'allowed' : 403;
+  return row.roles.includes(caller) ? 'allowed' : 403;
+}
+
+function expectedRow(spec: AnyRouteSpec): ExpectedAccess {
+  const row = EXPECTED_ACCESS[routeKey(spec)];
+  if (!row)
+    throw new Error(
+      `${routeKey(spec)} has no row in ${TABLE_FILE}: add one saying who may call it`,
+    );
+  return row;
 }
 
 let t: TestApp;
@@ -127,6 +141,14 @@ describe('route inventory', () => {
     }
   });
 
+  test(`every declared route has a row in ${TABLE_FILE}, and every row a route`, () => {
+    const declared = new Set(apiRoutes.map(routeKey));
+    const missing = [...declared].filter((key) => !(key in EXPECTED_ACCESS));
+    expect(missing, `routes with no row in ${TABLE_FILE}`).toEqual([]);
+    const stale = Object.keys(EXPECTED_ACCESS).filter((key) => !declared.has(key));
+    expect(stale, `rows in ${TABLE_FILE} for routes that do not exist`).toEqual([]);
+  });
+
   test('matter-scoped rules sit on paths with the id they are scoped by', () => {
     for (const spec of apiRoutes) {
       if (typeof spec.access !== 'object' || !('matter' in spec.access)) continue;
@@ -198,7 +220,7 @@ describe.each(
 )('%s', (_name, spec) => {
   // The callers of one route run concurrently (independent sessions); routes run in turn.
   test.concurrent.for(CALLERS)('as %s', async (caller, { expect }) => {
-    const expected = expectedOutcome(spec.access, caller);
+    const expected = expectedOutcome(expectedRow(spec), caller);
     const response = await callAs(caller, spec);
     const detail = `${caller} -> ${response.status} ${JSON.stringify(response.body)}`;
     // Refusals are JSON; an allowed file download (a CSV export) answers its own type.

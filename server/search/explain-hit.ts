@@ -24,37 +24,35 @@ function norm(v: ArrayLike<number>): number {
 }
 
 /**
- * The document terms carrying most of its cosine with `query`, best first.
- * `documentTerms` is the analysis of the document's text (analyze, or
- * analyzedTerms in highlight.ts); `dots` memoises (u_j M) . query per term across
- * the hits of one page, which share most of their vocabulary.
+ * Every term of the document with its share of the cosine with `query` (negative shares
+ * included): they add up to the cosine. `documentTerms` is the analysis of the
+ * document's text (analyze, or analyzedTerms in highlight.ts); `dots` memoises
+ * (u_j M) . query per term across the hits of one page, which share most of their
+ * vocabulary. Empty when either vector is zero.
  */
-export function topContributions(
+export function termContributions(
   space: ConceptSpace,
   query: Float64Array,
   documentIndex: number,
   documentTerms: readonly string[],
-  limit: number,
   dots: Map<number, number> = new Map(),
 ): { term: string; contribution: number }[] {
-  return topContributionsOfWeighted(
+  return contributionsOfWeighted(
     space,
     query,
     documentIndex,
     space.weightTerms(documentTerms),
-    limit,
     dots,
   );
 }
 
-/** topContributions for a document's terms already weighted by `space` (weightTerms). */
-export function topContributionsOfWeighted(
+/** termContributions for a document's terms already weighted by `space` (weightTerms). */
+function contributionsOfWeighted(
   space: ConceptSpace,
   query: Float64Array,
   documentIndex: number,
   weighted: WeightedTerms,
-  limit: number,
-  dots: Map<number, number> = new Map(),
+  dots: Map<number, number>,
 ): { term: string; contribution: number }[] {
   const d = space.docVector(documentIndex);
   const qn = norm(query);
@@ -66,9 +64,32 @@ export function topContributionsOfWeighted(
     const id = weighted.ids[p];
     let dot = dots.get(id);
     if (dot === undefined) dots.set(id, (dot = termDot(space, id, query)));
-    const contribution = scale * weighted.weights[p] * dot;
-    if (contribution > 0) out.push({ term: space.terms[id], contribution });
+    out.push({ term: space.terms[id], contribution: scale * weighted.weights[p] * dot });
   }
-  out.sort((a, b) => b.contribution - a.contribution || (a.term < b.term ? -1 : 1));
-  return out.slice(0, limit);
+  return out;
+}
+
+function largestPositive(
+  all: { term: string; contribution: number }[],
+  limit: number,
+): { term: string; contribution: number }[] {
+  return all
+    .filter((c) => c.contribution > 0)
+    .sort((a, b) => b.contribution - a.contribution || (a.term < b.term ? -1 : 1))
+    .slice(0, limit);
+}
+
+/** The weighted document terms carrying most of its cosine with `query`, best first. */
+export function topContributionsOfWeighted(
+  space: ConceptSpace,
+  query: Float64Array,
+  documentIndex: number,
+  weighted: WeightedTerms,
+  limit: number,
+  dots: Map<number, number> = new Map(),
+): { term: string; contribution: number }[] {
+  return largestPositive(
+    contributionsOfWeighted(space, query, documentIndex, weighted, dots),
+    limit,
+  );
 }

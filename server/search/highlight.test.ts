@@ -5,13 +5,12 @@
 // lower-casing (Unicode SpecialCasing: U+0130, final sigma) changes characters, where
 // the spans' tokens are not the analyzer's and the text must be analysed again.
 import { describe, expect, it } from 'vitest';
-import { cranfieldAvailable, cranfieldDir, readCranfield } from '../engine/index';
+import { readCranfield } from '../engine/index';
+import { requireShared } from '../../tests/helpers/shared-data';
 import { analyze } from '../engine/index';
 import { analyzedTerms, GenerationalMemo, termSpans } from './highlight';
 
-const present = cranfieldAvailable();
-if (!present && process.env.CI !== 'true')
-  console.warn(`[skip] Cranfield not found at ${cranfieldDir()}; highlight analysis check skipped`);
+const present = requireShared('highlight analysis against the analyzer');
 
 const spanTerms = (body: string) =>
   termSpans(body)
@@ -19,10 +18,6 @@ const spanTerms = (body: string) =>
     .filter((t) => t !== null);
 
 describe('analyzedTerms', () => {
-  it('finds the Cranfield collection when CI=true', () => {
-    if (process.env.CI === 'true') expect(present).toBe(true);
-  });
-
   it.runIf(present)('equals analyze(title + body) on all 1,400 Cranfield documents', () => {
     const { docs } = readCranfield();
     expect(docs.length).toBe(1400);

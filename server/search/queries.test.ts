@@ -4,13 +4,14 @@
 // to the texts; filter candidates must come from the covering index. Data: Cranfield 1400 (Cleverdon, Mills & Keen 1966, ../shared/data/cranfield)
 // and its 225 queries, loaded as one matter's documents.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cranfieldAvailable, readCranfield } from '../engine/index';
+import { readCranfield } from '../engine/index';
+import { requireShared } from '../../tests/helpers/shared-data';
 import { keywordQueryTerms } from '../engine/index';
 import { createTestApp, type TestApp } from '../../tests/helpers';
 import { replaceDocumentText } from '../documents/queries';
 import { documentsByIds, filteredDocumentIds } from './queries';
 
-const present = cranfieldAvailable();
+const present = requireShared('search queries against SQLite FTS5');
 let t: TestApp;
 let matterId: number;
 let custodians: number[];

@@ -5,10 +5,9 @@
 // types) and indexed through the engine (raw counts, k = 2, terms in two or more
 // documents: the paper's own set-up). Not a test file: the API tests import it.
 import { ConceptSpace } from '../engine/index';
-import { saveConceptSpace, type IndexTables } from '../engine/index';
-import type { Kysely } from 'kysely';
 import type { TestApp, TestMatter } from '../../tests/helpers';
 import { formatControlNumber } from '../documents/control-numbers';
+import { saveConceptSpace } from '../indexing/persist';
 
 export const DEERWESTER_TITLES = {
   c1: 'Human machine interface for ABC computer applications',
@@ -143,15 +142,10 @@ export async function indexMatter(
     weighting: options.weighting ?? 'raw',
     minDf: options.minDf ?? 2,
   });
-  const indexId = await saveConceptSpace(
-    t.ctx.db as unknown as Kysely<IndexTables>,
-    space,
-    diagnostics,
-    {
-      matterId,
-      version: 1,
-    },
-  );
+  const indexId = await saveConceptSpace(t.ctx.db, space, diagnostics, {
+    matterId,
+    version: 1,
+  });
   await t.ctx.db
     .updateTable('matters')
     .set({ current_index_id: indexId })

@@ -10,7 +10,7 @@ import { createAccount } from '../users/service';
 export const DEMO_PASSWORD = 'quarry-demo';
 export const DEMO_CONTROL_PREFIX = 'BBHM';
 
-/** The demo accounts (issue 2): the admin has no matter role; outsider has no matter. */
+/** The demo accounts: the admin has no matter role; outsider has no matter. */
 export const DEMO_ACCOUNTS: {
   email: string;
   name: string;

@@ -1,4 +1,4 @@
-// The demo seed (issue 2, "Accounts and access"): the six demo accounts with the
+// The demo seed (the product's "Accounts and access"): the six demo accounts with the
 // password quarry-demo, each role on the demo matter, the admin and the outsider on none.
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { createTestApp, type TestApp } from '../../tests/helpers';

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { idSchema, text, type PersonRef } from './common';
 
-// A matter's code set and coding of documents (issue 5).
+// A matter's code set and coding of documents.
 
 export const CODE_NAME_MAX_LENGTH = 60;
 export const BULK_CODING_MAX = 10_000;

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import type { Job } from './jobs';
 import { idSchema, text, type PersonRef } from './common';
 
-// The concept space seen from outside (issue 6): spectrum, concept dimensions and their
+// The concept space seen from outside: spectrum, concept dimensions and their
 // labels, term neighbours, the document map, k-means groups and index health.
 // Every route is under /api/matters/:matterId/concepts/... and reads the matter's
 // current (serving) index version. A rebuild with another k or weighting is

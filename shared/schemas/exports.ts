@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { QUERY_MAX_LENGTH } from '../limits';
 import { SEARCH_MODES, SORT_FIELDS, searchFiltersSchema } from './search';
 
-// CSV exports (issue 5), for roles with exports.create. Both answer text/csv
+// CSV exports, for roles with exports.create. Both answer text/csv
 // (RFC 4180: CRLF line ends, fields with commas, quotes or line breaks quoted, quotes
 // doubled) in UTF-8 with a byte-order mark (so spreadsheet programs read UTF-8), as
 // an attachment. A cell starting with = + - @ (or tab/CR) gets a leading apostrophe

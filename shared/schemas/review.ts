@@ -5,7 +5,7 @@ import { text, type PersonRef } from './common';
 import type { DocumentRef } from './documents';
 import { SEARCH_MODES } from './search';
 
-// The document viewer (issue 5): text with highlights, codes, notes, privilege entry, family.
+// The document viewer: text with highlights, codes, notes, privilege entry, family.
 
 export const NOTE_MAX_LENGTH = 10_000;
 export const PRIVILEGE_BASIS_MAX_LENGTH = 200;

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { QUERY_MAX_LENGTH, SEARCH_PAGE_MAX } from '../limits';
 import { idSchema, text } from './common';
 
-// Search (issue 5): POST /api/matters/:matterId/search, and "more like this".
+// Search: POST /api/matters/:matterId/search, and "more like this".
 //
 // One request shape serves three things:
 //  - a query:                     { query, mode, filters, ... }

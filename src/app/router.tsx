@@ -1,41 +1,13 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { createBrowserRouter, redirect } from 'react-router-dom';
+import type { ComponentType } from 'react';
+import { createBrowserRouter, type LoaderFunction, redirect } from 'react-router-dom';
 import { setUnauthenticatedHandler } from '../lib/api-client';
-import * as account from './routes/account';
-import * as accountSetup from './routes/account-setup';
-import * as admin from './routes/admin';
 import * as appRoot from './routes/app-root';
-import * as devMail from './routes/dev-mail';
-import * as invitation from './routes/invitation';
-import * as matterAccess from './routes/matter/access';
-import * as matterActivity from './routes/matter/activity';
-import * as matterCodes from './routes/matter/codes';
-import * as matterConcepts from './routes/matter/concepts';
-import * as matterConceptsDimensions from './routes/matter/concepts-dimensions';
-import * as matterConceptsGroups from './routes/matter/concepts-groups';
-import * as matterConceptsHealth from './routes/matter/concepts-health';
-import * as matterConceptsMap from './routes/matter/concepts-map';
-import * as matterConceptsSpectrum from './routes/matter/concepts-spectrum';
-import * as matterConceptsTerms from './routes/matter/concepts-terms';
-import * as matterDocument from './routes/matter/documents-item';
-import * as matterDocuments from './routes/matter/documents';
-import * as matterHome from './routes/matter/home';
-import * as matterLayout from './routes/matter/layout';
-import * as matterProductions from './routes/matter/productions';
-import * as matterReview from './routes/matter/review';
-import * as matterBatches from './routes/matter/batches';
-import * as matterQc from './routes/matter/qc';
-import * as matterPrivilegeLog from './routes/matter/privilege-log';
-import * as matterSearch from './routes/matter/search';
-import * as matterTrash from './routes/matter/trash';
-import * as matterUpload from './routes/matter/upload';
-import * as matterPrioritised from './routes/matter/prioritised';
-import * as matterValidation from './routes/matter/validation';
-import * as matterValidationSample from './routes/matter/validation-sample';
-import * as matters from './routes/matters';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteError } from './routes/route-error';
-import * as signIn from './routes/sign-in';
+
+/** What a page module exports besides its component: an optional loader factory. */
+type PageModule = { clientLoader?: (queryClient: QueryClient) => LoaderFunction };
 
 /**
  * The route tree. A page that needs data exports `clientLoader(queryClient)`, which
@@ -43,24 +15,49 @@ import * as signIn from './routes/sign-in';
  * `matters/:matterId` here and into src/features/matters/matter-sections.ts.
  */
 export function createAppRouter(queryClient: QueryClient) {
+  // Each page is its own chunk, fetched on first visit (React Router's route.lazy), so
+  // the sign-in screen and the matter list do not carry the chart, map and review code.
+  const page =
+    <M,>(load: () => Promise<M>, component: (module: M) => ComponentType) =>
+    async () => {
+      const module = await load();
+      const loader = (module as PageModule).clientLoader?.(queryClient);
+      return { Component: component(module), ...(loader ? { loader } : {}) };
+    };
+
   const router = createBrowserRouter([
     {
       path: '/sign-in',
-      loader: signIn.clientLoader(queryClient),
-      Component: signIn.SignInRoute,
+      lazy: page(
+        () => import('./routes/sign-in'),
+        (m) => m.SignInRoute,
+      ),
       ErrorBoundary: RouteError,
     },
     {
       path: '/invitations/:token',
-      Component: invitation.InvitationRoute,
+      lazy: page(
+        () => import('./routes/invitation'),
+        (m) => m.InvitationRoute,
+      ),
       ErrorBoundary: RouteError,
     },
     {
       path: '/account-setup/:token',
-      Component: accountSetup.AccountSetupRoute,
+      lazy: page(
+        () => import('./routes/account-setup'),
+        (m) => m.AccountSetupRoute,
+      ),
       ErrorBoundary: RouteError,
     },
-    { path: '/dev/mail', Component: devMail.DevMailRoute, ErrorBoundary: RouteError },
+    {
+      path: '/dev/mail',
+      lazy: page(
+        () => import('./routes/dev-mail'),
+        (m) => m.DevMailRoute,
+      ),
+      ErrorBoundary: RouteError,
+    },
     {
       id: 'app',
       loader: appRoot.clientLoader(queryClient),
@@ -70,117 +67,219 @@ export function createAppRouter(queryClient: QueryClient) {
         { index: true, loader: () => redirect('/matters') },
         {
           path: 'matters',
-          loader: matters.clientLoader(queryClient),
-          Component: matters.MattersRoute,
+          lazy: page(
+            () => import('./routes/matters'),
+            (m) => m.MattersRoute,
+          ),
         },
         {
           path: 'matters/:matterId',
-          loader: matterLayout.clientLoader(queryClient),
-          Component: matterLayout.MatterLayout,
+          lazy: page(
+            () => import('./routes/matter/layout'),
+            (m) => m.MatterLayout,
+          ),
           ErrorBoundary: RouteError,
           children: [
-            { index: true, Component: matterHome.MatterHomeRoute },
+            {
+              index: true,
+              lazy: page(
+                () => import('./routes/matter/home'),
+                (m) => m.MatterHomeRoute,
+              ),
+            },
             {
               path: 'documents',
-              loader: matterDocuments.clientLoader(queryClient),
-              Component: matterDocuments.DocumentsRoute,
+              lazy: page(
+                () => import('./routes/matter/documents'),
+                (m) => m.DocumentsRoute,
+              ),
             },
             {
               path: 'documents/:docId',
-              loader: matterDocument.clientLoader(queryClient),
-              Component: matterDocument.DocumentRoute,
+              lazy: page(
+                () => import('./routes/matter/documents-item'),
+                (m) => m.DocumentRoute,
+              ),
             },
             {
               path: 'search',
-              loader: matterSearch.clientLoader(queryClient),
-              Component: matterSearch.SearchRoute,
+              lazy: page(
+                () => import('./routes/matter/search'),
+                (m) => m.SearchRoute,
+              ),
             },
-            { path: 'search/term-report', Component: matterSearch.TermReportRoute },
+            {
+              path: 'search/term-report',
+              lazy: page(
+                () => import('./routes/matter/search'),
+                (m) => m.TermReportRoute,
+              ),
+            },
             {
               path: 'review/:docId',
-              loader: matterReview.clientLoader(queryClient),
-              Component: matterReview.ReviewRoute,
+              lazy: page(
+                () => import('./routes/matter/review'),
+                (m) => m.ReviewRoute,
+              ),
             },
             {
               path: 'concepts',
-              Component: matterConcepts.ConceptsLayout,
+              lazy: page(
+                () => import('./routes/matter/concepts'),
+                (m) => m.ConceptsLayout,
+              ),
               children: [
-                { index: true, Component: matterConcepts.ConceptsIndexRoute },
+                {
+                  index: true,
+                  lazy: page(
+                    () => import('./routes/matter/concepts'),
+                    (m) => m.ConceptsIndexRoute,
+                  ),
+                },
                 {
                   path: 'spectrum',
-                  loader: matterConceptsSpectrum.clientLoader(queryClient),
-                  Component: matterConceptsSpectrum.ConceptsSpectrumRoute,
+                  lazy: page(
+                    () => import('./routes/matter/concepts-spectrum'),
+                    (m) => m.ConceptsSpectrumRoute,
+                  ),
                 },
                 {
                   path: 'dimensions',
-                  loader: matterConceptsDimensions.clientLoader(queryClient),
-                  Component: matterConceptsDimensions.ConceptsDimensionsRoute,
+                  lazy: page(
+                    () => import('./routes/matter/concepts-dimensions'),
+                    (m) => m.ConceptsDimensionsRoute,
+                  ),
                 },
-                { path: 'terms', Component: matterConceptsTerms.ConceptsTermsRoute },
+                {
+                  path: 'terms',
+                  lazy: page(
+                    () => import('./routes/matter/concepts-terms'),
+                    (m) => m.ConceptsTermsRoute,
+                  ),
+                },
                 {
                   path: 'map',
-                  loader: matterConceptsMap.clientLoader(queryClient),
-                  Component: matterConceptsMap.ConceptsMapRoute,
+                  lazy: page(
+                    () => import('./routes/matter/concepts-map'),
+                    (m) => m.ConceptsMapRoute,
+                  ),
                 },
                 {
                   path: 'groups',
-                  loader: matterConceptsGroups.clientLoader(queryClient),
-                  Component: matterConceptsGroups.ConceptsGroupsRoute,
+                  lazy: page(
+                    () => import('./routes/matter/concepts-groups'),
+                    (m) => m.ConceptsGroupsRoute,
+                  ),
                 },
                 {
                   path: 'health',
-                  loader: matterConceptsHealth.clientLoader(queryClient),
-                  Component: matterConceptsHealth.ConceptsHealthRoute,
+                  lazy: page(
+                    () => import('./routes/matter/concepts-health'),
+                    (m) => m.ConceptsHealthRoute,
+                  ),
                 },
               ],
             },
             {
               path: 'codes',
-              loader: matterCodes.clientLoader(queryClient),
-              Component: matterCodes.CodesRoute,
+              lazy: page(
+                () => import('./routes/matter/codes'),
+                (m) => m.CodesRoute,
+              ),
             },
             {
               path: 'upload',
-              loader: matterUpload.clientLoader(queryClient),
-              Component: matterUpload.UploadRoute,
+              lazy: page(
+                () => import('./routes/matter/upload'),
+                (m) => m.UploadRoute,
+              ),
             },
             {
               path: 'access',
-              loader: matterAccess.clientLoader(queryClient),
-              Component: matterAccess.AccessRoute,
+              lazy: page(
+                () => import('./routes/matter/access'),
+                (m) => m.AccessRoute,
+              ),
             },
             {
               path: 'activity',
-              loader: matterActivity.clientLoader(queryClient),
-              Component: matterActivity.ActivityRoute,
+              lazy: page(
+                () => import('./routes/matter/activity'),
+                (m) => m.ActivityRoute,
+              ),
             },
-            { path: 'batches', Component: matterBatches.BatchesRoute },
-            { path: 'qc', Component: matterQc.QcRoute },
-            { path: 'privilege-log', Component: matterPrivilegeLog.PrivilegeLogRoute },
             {
               path: 'trash',
-              loader: matterTrash.clientLoader(queryClient),
-              Component: matterTrash.TrashRoute,
+              lazy: page(
+                () => import('./routes/matter/trash'),
+                (m) => m.TrashRoute,
+              ),
             },
-            { path: 'productions', Component: matterProductions.ProductionsRoute },
+            {
+              path: 'batches',
+              lazy: page(
+                () => import('./routes/matter/batches'),
+                (m) => m.BatchesRoute,
+              ),
+            },
+            {
+              path: 'qc',
+              lazy: page(
+                () => import('./routes/matter/qc'),
+                (m) => m.QcRoute,
+              ),
+            },
+            {
+              path: 'privilege-log',
+              lazy: page(
+                () => import('./routes/matter/privilege-log'),
+                (m) => m.PrivilegeLogRoute,
+              ),
+            },
+            {
+              path: 'productions',
+              lazy: page(
+                () => import('./routes/matter/productions'),
+                (m) => m.ProductionsRoute,
+              ),
+            },
             {
               path: 'prioritised',
-              loader: matterPrioritised.clientLoader(queryClient),
-              Component: matterPrioritised.PrioritisedRoute,
+              lazy: page(
+                () => import('./routes/matter/prioritised'),
+                (m) => m.PrioritisedRoute,
+              ),
             },
             {
               path: 'validation',
-              loader: matterValidation.clientLoader(queryClient),
-              Component: matterValidation.ValidationRoute,
+              lazy: page(
+                () => import('./routes/matter/validation'),
+                (m) => m.ValidationRoute,
+              ),
             },
             {
               path: 'validation/:sampleId',
-              Component: matterValidationSample.ValidationSampleRoute,
+              lazy: page(
+                () => import('./routes/matter/validation-sample'),
+                (m) => m.ValidationSampleRoute,
+              ),
             },
           ],
         },
-        { path: 'account', Component: account.AccountRoute },
-        { path: 'admin', loader: admin.clientLoader(queryClient), Component: admin.AdminRoute },
+        {
+          path: 'account',
+          lazy: page(
+            () => import('./routes/account'),
+            (m) => m.AccountRoute,
+          ),
+        },
+        {
+          path: 'admin',
+          lazy: page(
+            () => import('./routes/admin'),
+            (m) => m.AdminRoute,
+          ),
+        },
         { path: '*', Component: NotFoundRoute },
       ],
     },

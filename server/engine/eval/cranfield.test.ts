@@ -1,25 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { cranfieldAvailable, cranfieldDir, readCranfield } from './cranfield';
+import { requireShared } from '../../../tests/helpers/shared-data';
+import { readCranfield } from './cranfield';
 import { prepareCollection, runEvaluation } from './evaluate';
 
 // Cranfield 1400 (Cleverdon, Mills & Keen 1966), read from ../shared/data/cranfield.
 // Reference figures measured with reference libraries and the same preprocessing
-// (brief for issue 3): BM25 (SQLite FTS5) MAP 0.318, the best LSI 0.359
+// (the retrieval brief): BM25 (SQLite FTS5) MAP 0.318, the best LSI 0.359
 // (log-entropy, k = 200, projection onto U_k), a tuned hybrid 0.364.
-const present = cranfieldAvailable();
-const inCi = process.env.CI === 'true';
-
-if (!present && !inCi) {
-  console.warn(
-    `[skip] Cranfield collection not found at ${cranfieldDir()}; retrieval-quality test skipped`,
-  );
-}
-
-describe('Cranfield collection files', () => {
-  it.runIf(inCi)('are present in CI', () => {
-    expect(present, `Cranfield must exist at ${cranfieldDir()} when CI=true`).toBe(true);
-  });
-});
+const present = requireShared('Cranfield retrieval quality');
 
 describe.runIf(present)('Cranfield retrieval quality (MAP over the 225 judged queries)', () => {
   it('reads 1400 documents, 225 queries numbered by position, graded qrels', () => {

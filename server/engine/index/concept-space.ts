@@ -15,15 +15,9 @@ import { buildTermDocumentMatrix } from './term-document';
 import type { CsrMatrix } from '../sparse/csr';
 import { allocateRows } from '../search/simd-dot';
 import { applyWeights, globalWeights, localWeight, WEIGHTINGS, type Weighting } from './weighting';
-import {
-  conditionNumber,
-  energyKept,
-  frobeniusNormSq,
-  numericalRank,
-  orthogonalityError,
-  truncatedSvd,
-  type SvdOptions,
-} from './numerics';
+import { frobeniusNormSq } from '../sparse/csr';
+import { numericalRank, truncatedSvd, type SvdOptions } from '../linalg/svd';
+import { conditionNumber, energyKept, orthogonalityError } from '../linalg/diagnostics';
 
 export type DocId = string | number;
 export type Scaling = 'projection' | 'classic';

@@ -2,21 +2,15 @@
 // files in ../shared/data/cranfield): the neighbours termNeighbours returns are checked
 // against a brute-force float64 cosine over every term's row of U_k S_k.
 import { describe, expect, it } from 'vitest';
-import { cranfieldAvailable, readCranfield } from '../eval/cranfield';
+import { requireShared } from '../../../tests/helpers/shared-data';
+import { readCranfield } from '../eval/cranfield';
 import { ConceptSpace } from '../index/concept-space';
 import { analyze } from '../text/analyzer';
 import { termNeighbours } from './neighbours';
 
-const available = cranfieldAvailable();
-if (!available) {
-  if (process.env.CI === 'true')
-    throw new Error('Cranfield data missing in CI: expected ../shared/data/cranfield');
-  console.warn(
-    'Cranfield data not found in ../shared/data/cranfield: term-neighbour check skipped',
-  );
-}
+const available = requireShared('term neighbours against brute-force cosine');
 
-describe.skipIf(!available)('term neighbours on Cranfield (brute-force cosine reference)', () => {
+describe.runIf(available)('term neighbours on Cranfield (brute-force cosine reference)', () => {
   it('matches a brute-force cosine over all terms for several words', () => {
     const { docs } = readCranfield();
     const { space } = ConceptSpace.build(

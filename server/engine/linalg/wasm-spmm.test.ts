@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { Matrix } from 'ml-matrix';
 import { type CsrMatrix, csrFromTriplets, csrToDense } from '../sparse/csr';
 import { mulberry32 } from './random';
-import { SpmmArena, spmmModule } from './wasm-spmm';
+import { SPMM_WASM, SpmmArena, spmmModule } from './wasm-spmm';
 import { parallelCsrOperator } from './parallel';
 import { serialRows } from './dense';
 
@@ -55,6 +55,7 @@ function maxAbsDifference(x: ArrayLike<number>, y: ArrayLike<number>): number {
 
 describe('WebAssembly SIMD sparse x dense block product (reference: ml-matrix mmul)', () => {
   it('is available on this Node (WebAssembly SIMD and shared memory)', () => {
+    expect(WebAssembly.validate(SPMM_WASM), 'the hand-built SPMM_WASM bytes').toBe(true);
     expect(spmmModule()).not.toBeNull();
   });
 

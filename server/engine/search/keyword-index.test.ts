@@ -1,6 +1,7 @@
 import SQLite from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cranfieldAvailable, readCranfield, type CranfieldCollection } from '../eval/cranfield';
+import { requireShared } from '../../../tests/helpers/shared-data';
+import { readCranfield, type CranfieldCollection } from '../eval/cranfield';
 import { mulberry32 } from '../linalg/random';
 import { ftsRawTokens, ftsTokens } from './fts5-tokens';
 import { KEYWORD_TABLES_DDL } from './keyword';
@@ -10,7 +11,7 @@ import { KeywordIndex, keywordQueryTerms } from './keyword-index';
 // fts5vocab table, sqlite.org/fts5.html sections 5.1.1 and 7), over the Cranfield
 // collection (Cleverdon 1967; ../shared/data/cranfield) loaded as one FTS5 table, so
 // FTS5's collection statistics are the index's.
-const available = cranfieldAvailable();
+const available = requireShared('KeywordIndex against SQLite FTS5');
 
 function ftsDatabase(docs: { rowid: number; title: string; body: string }[]) {
   const db = new SQLite(':memory:');
@@ -25,7 +26,7 @@ function ftsDatabase(docs: { rowid: number; title: string; body: string }[]) {
   return db;
 }
 
-describe.skipIf(!available)('KeywordIndex against SQLite FTS5 on Cranfield', () => {
+describe.runIf(available)('KeywordIndex against SQLite FTS5 on Cranfield', () => {
   let cranfield: CranfieldCollection;
   let db: SQLite.Database;
   let index: KeywordIndex;

@@ -114,7 +114,7 @@ const DOTS_BODY = [
 ];
 
 const CODE_CONTENT = [0x01, ...leb128(DOTS_BODY.length), ...DOTS_BODY];
-const DOTS_WASM = new Uint8Array([
+export const DOTS_WASM = new Uint8Array([
   ...DOTS_HEADER,
   0x0a,
   ...leb128(CODE_CONTENT.length),
@@ -283,7 +283,12 @@ const DOTS8_BODY = [
 ];
 
 const CODE8 = [0x01, ...leb128(DOTS8_BODY.length), ...DOTS8_BODY];
-const DOTS8_WASM = new Uint8Array([...DOTS8_HEADER, 0x0a, ...leb128(CODE8.length), ...CODE8]);
+export const DOTS8_WASM = new Uint8Array([
+  ...DOTS8_HEADER,
+  0x0a,
+  ...leb128(CODE8.length),
+  ...CODE8,
+]);
 let module8: WebAssembly.Module | null | undefined;
 
 function dots8Module(): WebAssembly.Module | null {

@@ -10,3 +10,4 @@ export { LoadingBlock, SkeletonRows, Spinner } from './spinner';
 export { TBody, THead, Table, Td, Th, Tr } from './table';
 export { TextField, inputClass } from './text-field';
 export { QueryBoundary } from './query-boundary';
+export { Pager, SortableTh, type SortDirection } from './sortable-table';

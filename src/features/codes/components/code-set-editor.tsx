@@ -3,7 +3,7 @@ import { CODE_NAME_MAX_LENGTH, type UpdateCodeReq } from '@shared/schemas/codes'
 import { Badge, Button, Notice, TextField, describeError } from '@/components/ui';
 import { inputClass } from '@/components/ui/text-field';
 import { cn } from '@/lib/cn';
-import { RESERVED_KEYS, codeKeyMap, keyOfCode } from '@/features/review/keyboard';
+import { RESERVED_KEYS, codeKeyMap, keyOfCode } from '@/features/review';
 import { useCreateCode } from '../api/create-code';
 import { type Code, activeCodes } from '../api/get-codes';
 import { useUpdateCode } from '../api/update-code';

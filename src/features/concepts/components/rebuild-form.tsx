@@ -13,7 +13,7 @@ import { useIndexState } from '@/features/indexing/api/get-index-state';
 import { useRebuildIndex } from '@/features/indexing/api/rebuild-index';
 import { useJob } from '@/features/jobs/api/get-job';
 import { isJobActive } from '@/features/jobs/api/get-matter-jobs';
-import { JobProgress } from '@/features/jobs/components/job-progress';
+import { JobProgress } from '@/features/jobs';
 import { conceptsQueryKey } from '../api/keys';
 import { formatShare } from '../format';
 

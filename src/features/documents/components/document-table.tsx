@@ -16,9 +16,8 @@ import {
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import type { DocumentListItem } from '@shared/schemas/documents';
-import { Badge, Button, Notice, describeError } from '@/components/ui';
+import { Badge, Button, Notice, Pager, SortableTh, describeError } from '@/components/ui';
 import { useMatterPermission } from '@/lib/authorization';
-import { cn } from '@/lib/cn';
 import { formatDate } from '@/lib/format';
 import { DeleteDocumentDialog } from './delete-document-dialog';
 import { useRetryDocument } from '../api/retry-document';
@@ -140,43 +139,18 @@ export function DocumentTable({
           <thead className="bg-sunk/70 text-left">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  const canSort = header.column.getCanSort();
-                  return (
-                    <th
-                      key={header.id}
-                      scope="col"
-                      aria-sort={
-                        sorted === 'asc'
-                          ? 'ascending'
-                          : sorted === 'desc'
-                            ? 'descending'
-                            : undefined
-                      }
-                      className={cn(
-                        'border-b border-line px-2.5 py-1.5 text-[11px] font-semibold tracking-wide text-ink-muted uppercase',
-                        headerClass[header.column.id],
-                      )}
-                    >
-                      {canSort ? (
-                        <button
-                          type="button"
-                          onClick={header.column.getToggleSortingHandler()}
-                          className="inline-flex items-center gap-1 uppercase hover:text-ink"
-                          data-testid={`sort-${header.column.id}`}
-                        >
-                          <table.FlexRender header={header} />
-                          <span aria-hidden="true" className="w-2 text-accent-strong">
-                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : ''}
-                          </span>
-                        </button>
-                      ) : (
-                        <table.FlexRender header={header} />
-                      )}
-                    </th>
-                  );
-                })}
+                {group.headers.map((header) => (
+                  <SortableTh
+                    key={header.id}
+                    sorted={header.column.getIsSorted()}
+                    canSort={header.column.getCanSort()}
+                    onToggle={header.column.getToggleSortingHandler()}
+                    testId={`sort-${header.column.id}`}
+                    className={headerClass[header.column.id]}
+                  >
+                    <table.FlexRender header={header} />
+                  </SortableTh>
+                ))}
               </tr>
             ))}
           </thead>
@@ -280,6 +254,9 @@ export function DocumentTable({
         </table>
       </div>
       <Pager
+        label="Pages of documents"
+        rangeTestId="document-range"
+        pageSizes={PAGE_SIZES}
         pageIndex={pagination.pageIndex}
         pageCount={table.getPageCount()}
         pageSize={pagination.pageSize}
@@ -289,7 +266,7 @@ export function DocumentTable({
         onPrevious={() => table.previousPage()}
         onNext={() => table.nextPage()}
         onPageSize={(size) => onPaginationChange({ pageIndex: 0, pageSize: size })}
-        sorted={sorting.length > 0}
+        note={sorting.length > 0 ? 'sorting orders the rows of this page' : undefined}
       />
       <DeleteDocumentDialog
         matterId={matterId}
@@ -301,66 +278,3 @@ export function DocumentTable({
 }
 
 const PAGE_SIZES = [50, 100, 250, 500];
-
-function Pager({
-  pageIndex,
-  pageCount,
-  pageSize,
-  total,
-  canPrevious,
-  canNext,
-  onPrevious,
-  onNext,
-  onPageSize,
-  sorted,
-}: {
-  pageIndex: number;
-  pageCount: number;
-  pageSize: number;
-  total: number;
-  canPrevious: boolean;
-  canNext: boolean;
-  onPrevious: () => void;
-  onNext: () => void;
-  onPageSize: (size: number) => void;
-  sorted: boolean;
-}) {
-  const first = total === 0 ? 0 : pageIndex * pageSize + 1;
-  const last = Math.min(total, (pageIndex + 1) * pageSize);
-  return (
-    <nav
-      aria-label="Pages of documents"
-      className="mt-2 flex flex-wrap items-center justify-between gap-3 text-[13px] text-ink-muted"
-    >
-      <span aria-live="polite" data-testid="document-range">
-        {first}–{last} of {total}
-        {sorted ? ' · sorting orders the rows of this page' : ''}
-      </span>
-      <span className="flex items-center gap-2">
-        <label className="flex items-center gap-1.5">
-          Rows per page
-          <select
-            className="h-7 rounded-md border border-line-strong bg-panel px-1.5 text-[13px] text-ink"
-            value={pageSize}
-            onChange={(event) => onPageSize(Number(event.target.value))}
-          >
-            {PAGE_SIZES.map((size) => (
-              <option key={size} value={size}>
-                {size}
-              </option>
-            ))}
-          </select>
-        </label>
-        <Button size="sm" onClick={onPrevious} disabled={!canPrevious}>
-          Previous
-        </Button>
-        <span className="tabular-nums">
-          Page {pageCount === 0 ? 0 : pageIndex + 1} of {pageCount}
-        </span>
-        <Button size="sm" onClick={onNext} disabled={!canNext}>
-          Next
-        </Button>
-      </span>
-    </nav>
-  );
-}

@@ -6,7 +6,7 @@ import { Can } from '@/lib/authorization';
 import { formatDateTime } from '@/lib/format';
 import { documentsQueryKey } from '@/features/documents/api/get-documents';
 import { isJobActive } from '@/features/jobs/api/get-matter-jobs';
-import { JobProgress } from '@/features/jobs/components/job-progress';
+import { JobProgress } from '@/features/jobs';
 import { useIndexState } from '../api/get-index-state';
 import { useRebuildIndex } from '../api/rebuild-index';
 

@@ -12,7 +12,7 @@ import {
   describeError,
 } from '@/components/ui';
 import { useJob } from '@/features/jobs/api/get-job';
-import { ProgressBar } from '@/features/jobs/components/progress-bar';
+import { ProgressBar } from '@/features/jobs';
 import { formatDateTime } from '@/lib/format';
 import { productionDownloadHref, useBuildProduction } from '../api/build-production';
 import { useResolveFamily } from '../api/resolve-family';

@@ -9,15 +9,10 @@ import { formatDateTime } from '@/lib/format';
 import { type Code, activeCodes, useCodes } from '@/features/codes/api/get-codes';
 import { useSetDocumentCodes } from '@/features/codes/api/set-document-codes';
 import { documentOriginalHref } from '@/features/documents/api/get-document';
-import { docTypeLabel, formatBytes } from '@/features/documents/format';
+import { docTypeLabel, formatBytes } from '@/features/documents';
 import { useUnlockDocument } from '@/features/qc/api/unlock-document';
-import { RedactionPanel } from '@/features/redactions/components/redaction-panel';
-import {
-  type SearchState,
-  hasSearch,
-  parseSearchState,
-  searchHref,
-} from '@/features/search/search-state';
+import { RedactionPanel } from '@/features/redactions';
+import { type SearchState, hasSearch, parseSearchState, searchHref } from '@/features/search';
 import { type ReviewResponse, useReview } from '../api/get-review';
 import { plural } from '../format';
 import { codeKeyMap, isTypingTarget } from '../keyboard';

@@ -2,7 +2,7 @@ import { type ReactNode, useRef, useState } from 'react';
 import type { HighlightRange } from '@shared/schemas/review';
 import { PASSAGE_MAX_LENGTH } from '@shared/schemas/search';
 import { Button } from '@/components/ui';
-import { HighlightLegend, Mark } from '@/features/search/components/highlight';
+import { HighlightLegend, Mark } from '@/features/search';
 
 /** Splits the text at the highlight ranges ([start, end) in UTF-16 units), overlaps dropped. */
 function renderHighlighted(body: string, ranges: HighlightRange[]): ReactNode[] {

@@ -5,7 +5,7 @@ import type { SearchFilters, SearchMode } from '@shared/schemas/search';
 import { Button, Notice, SkeletonRows, TextField, describeError } from '@/components/ui';
 import { Can, useMatterPermission } from '@/lib/authorization';
 import { formatDate } from '@/lib/format';
-import { MODE_LABELS, searchHref } from '@/features/search/search-state';
+import { MODE_LABELS, searchHref } from '@/features/search';
 import { useCreateSavedSearch } from '../api/create-saved-search';
 import { useDeleteSavedSearch } from '../api/delete-saved-search';
 import { useSavedSearches } from '../api/get-saved-searches';

@@ -15,7 +15,7 @@ import type { SearchHit, SearchSort, SortField } from '@shared/schemas/search';
 import { Badge } from '@/components/ui';
 import { cn } from '@/lib/cn';
 import { formatDate } from '@/lib/format';
-import { docTypeLabel } from '@/features/documents/format';
+import { docTypeLabel } from '@/features/documents';
 import { Snippet } from './highlight';
 import { ScoreBar } from './score-bar';
 

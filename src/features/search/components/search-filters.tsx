@@ -4,7 +4,7 @@ import { Button } from '@/components/ui';
 import { inputClass } from '@/components/ui/text-field';
 import { cn } from '@/lib/cn';
 import type { Code } from '@/features/codes/api/get-codes';
-import { DOC_TYPE_LABELS } from '@/features/documents/format';
+import { DOC_TYPE_LABELS } from '@/features/documents';
 
 interface Option {
   id: string;

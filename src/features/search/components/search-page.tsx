@@ -15,11 +15,11 @@ import {
   Spinner,
 } from '@/components/ui';
 import { useCodes } from '@/features/codes/api/get-codes';
-import { BulkCodingBar } from '@/features/codes/components/bulk-coding-bar';
+import { BulkCodingBar } from '@/features/codes';
 import { useCustodians } from '@/features/documents/api/get-custodians';
 import { useDocument } from '@/features/documents/api/get-document';
-import { ExportButtons } from '@/features/exports/components/export-buttons';
-import { SavedSearchesPanel } from '@/features/saved-searches/components/saved-searches-panel';
+import { ExportButtons } from '@/features/exports';
+import { SavedSearchesPanel } from '@/features/saved-searches';
 import { recentSearchesQueryKey } from '../api/get-recent-searches';
 import { useSearch } from '../api/run-search';
 import { HighlightLegend } from './highlight';

@@ -1,16 +1,10 @@
 import SQLite from 'better-sqlite3';
 import { Kysely, Migrator, SqliteDialect } from 'kysely';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { migrations } from '../../../migrations/index';
-import { search } from '../search/search';
-import { ConceptSpace } from './concept-space';
-import {
-  decodeSingularValues,
-  loadConceptSpace,
-  saveConceptSpace,
-  saveFoldedDocuments,
-  type IndexTables,
-} from './persist';
+import { migrations } from '../../migrations/index';
+import { ConceptSpace, decodeSingularValues, search } from '../engine/index';
+import type { Database } from '../db/schema';
+import { loadConceptSpace, saveConceptSpace, saveFoldedDocuments } from './persist';
 
 // Round trip through the real schema (migrations/), as the server runs it.
 const TEXTS = [
@@ -25,12 +19,12 @@ const TEXTS = [
 ];
 
 let sqlite: SQLite.Database;
-let db: Kysely<IndexTables>;
+let db: Kysely<Database>;
 
 beforeEach(async () => {
   sqlite = new SQLite(':memory:');
   sqlite.pragma('foreign_keys = ON');
-  db = new Kysely<IndexTables>({ dialect: new SqliteDialect({ database: sqlite }) });
+  db = new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) });
   const migrator = new Migrator({ db, provider: { getMigrations: async () => migrations } });
   const { error } = await migrator.migrateToLatest();
   if (error) throw error;

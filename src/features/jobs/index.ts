@@ -1,0 +1,3 @@
+// What other features may use of this one besides its api/ hooks.
+export { JobProgress } from './components/job-progress';
+export { ProgressBar } from './components/progress-bar';
