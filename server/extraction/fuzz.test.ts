@@ -28,9 +28,14 @@ const LOOP_BOUND_MS = loadavg()[0] > 2 * cpus().length ? 1000 : 200;
 let t: TestApp;
 let matter: TestMatter;
 let agent: Agent;
-const histogram = monitorEventLoopDelay({ resolution: 10 });
-/** Per upload, for the failure message: which files were being handled when the loop stalled. */
+/**
+ * Measured per step of server work (an upload and its extraction, the final drain, the first
+ * search) rather than over the whole test: gaps between steps belong to the test runner and its
+ * garbage collector, not to Quarry, and once pushed a 200 ms bound over by a fraction of a ms
+ * with no step near it. `worstMs` is the largest delay seen inside any step.
+ */
 const step = monitorEventLoopDelay({ resolution: 10 });
+let worstMs = 0;
 const stalls: { files: string; ms: number }[] = [];
 
 async function waitForJob(jobId: number, timeoutMs = 120_000) {
@@ -58,6 +63,7 @@ async function upload(files: { name: string; content: Buffer }[], refusable = fa
   } finally {
     step.disable();
     const ms = step.max / 1e6;
+    worstMs = Math.max(worstMs, ms);
     if (ms > 100)
       stalls.push({
         files: files
@@ -74,7 +80,9 @@ async function maxDelayOf<T>(work: () => PromiseLike<T>): Promise<{ result: T; m
   step.enable();
   const result = await work();
   step.disable();
-  return { result, ms: step.max / 1e6 };
+  const ms = step.max / 1e6;
+  worstMs = Math.max(worstMs, ms);
+  return { result, ms };
 }
 
 async function uploadAndWait(files: { name: string; content: Buffer }[], refusable: boolean) {
@@ -266,11 +274,10 @@ beforeAll(async () => {
   }));
   hostileFiles = await hostile();
   await t.ctx.jobs.waitForIdle();
-  histogram.enable();
+  worstMs = 0;
 }, 60_000);
 
 afterAll(async () => {
-  histogram.disable();
   await t?.close();
 });
 
@@ -283,7 +290,8 @@ describe('extractor fuzzing', () => {
       else await upload(files);
     }
     for (const file of hostileFiles) await upload([file], true);
-    await t.ctx.jobs.waitForIdle(120_000);
+    const idle = await maxDelayOf(() => t.ctx.jobs.waitForIdle(120_000));
+    if (idle.ms > 100) stalls.push({ files: 'jobs after the last upload', ms: idle.ms });
     // The server still answers, and searching takes in every new text.
     const me = await agent.get('/api/auth/me');
     expect(me.status).toBe(200);
@@ -293,7 +301,7 @@ describe('extractor fuzzing', () => {
     expect(searched.result.status).toBe(200);
     if (searched.ms > 100)
       stalls.push({ files: 'the first search after the uploads', ms: searched.ms });
-    const maxMs = histogram.max / 1e6;
+    const maxMs = worstMs;
     console.log(
       `fuzz: ${6 * CASES} mutations + hostile cases; event loop max delay ${maxMs.toFixed(0)} ms (bound ${LOOP_BOUND_MS} ms, load average ${loadavg()[0].toFixed(1)}); longest stalls: ${JSON.stringify(stalls.sort((a, b) => b.ms - a.ms).slice(0, 3))}`,
     );
