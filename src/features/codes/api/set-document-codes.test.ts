@@ -108,3 +108,42 @@ describe('setDocumentCodesMutationOptions', () => {
     expect(observer.getCurrentResult().error?.message).toBe('Your role may not code documents.');
   });
 });
+
+describe('two quick changes to one document', () => {
+  it("keeps the later choice on screen while the earlier change's answer comes back", async () => {
+    const client = new QueryClient();
+    const cache = seed(client);
+    const releases: ((r: Response) => void)[] = [];
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(() => new Promise<Response>((resolve) => releases.push(resolve))),
+    );
+    const options = setDocumentCodesMutationOptions(client, MATTER);
+    const first = new MutationObserver(client, options).mutate({
+      documentId: DOC,
+      codes: [responsive, hot],
+    });
+    await vi.waitFor(() => expect(releases).toHaveLength(1));
+    const second = new MutationObserver(client, options).mutate({ documentId: DOC, codes: [hot] });
+    await vi.waitFor(() => expect(cache.reviewCodes()).toEqual(['Hot']));
+    const coded = (codes: { id: number; name: string }[]) =>
+      codes.map((c) => ({ ...c, codedBy: null, codedAt: '2021-01-02T00:00:00Z' }));
+    releases[0](
+      answer(200, {
+        documentId: DOC,
+        codes: coded([responsive, hot]),
+        added: [hot.id],
+        removed: [],
+      }),
+    );
+    await first;
+    // Before the fix the first answer wrote Responsive back until the second answer came.
+    expect(cache.reviewCodes()).toEqual(['Hot']);
+    await vi.waitFor(() => expect(releases).toHaveLength(2));
+    releases[1](
+      answer(200, { documentId: DOC, codes: coded([hot]), added: [], removed: [responsive.id] }),
+    );
+    await second;
+    expect(cache.reviewCodes()).toEqual(['Hot']);
+  });
+});

@@ -38,10 +38,28 @@ export interface SetDocumentCodesVars {
   privilege?: PrivilegeFieldsReq;
 }
 
+/** Every coding change of a matter, for counting the ones still queued behind each other. */
+export const setDocumentCodesMutationKey = (matterId: number) =>
+  ['matters', 'detail', matterId, 'set-codes'] as const;
+
+/** Matters whose cached review documents need a refetch once their coding queue drains. */
+const staleReviews = new WeakMap<QueryClient, Set<number>>();
+
+/** Changes to `documentId` still pending in the queue (the one finishing counts itself). */
+function pendingFor(queryClient: QueryClient, matterId: number, documentId: number): number {
+  return queryClient.isMutating({
+    mutationKey: setDocumentCodesMutationKey(matterId),
+    predicate: (m) =>
+      (m.state.variables as SetDocumentCodesVars | undefined)?.documentId === documentId,
+  });
+}
+
 /**
  * Optimistic: the new codes show at once; a refusal puts the old ones back and the
  * mutation's error says why. Changes in one matter run one after another (scope), so
- * the server sees them in the order they were made.
+ * the server sees them in the order they were made. A server answer is written back only
+ * when no later change to the same document is queued: otherwise the earlier answer would
+ * overwrite the later choice on screen until that one came back too.
  */
 export function setDocumentCodesMutationOptions(queryClient: QueryClient, matterId: number) {
   return mutationOptions<DocumentCodesResponse, Error, SetDocumentCodesVars, CodingSnapshot>({
@@ -52,6 +70,7 @@ export function setDocumentCodesMutationOptions(queryClient: QueryClient, matter
         codes.map((code) => code.id),
         privilege,
       ),
+    mutationKey: setDocumentCodesMutationKey(matterId),
     scope: { id: `coding-${matterId}` },
     onMutate: async ({ documentId, codes }) => {
       const snapshot = await snapshotCoding(queryClient, matterId);
@@ -62,6 +81,7 @@ export function setDocumentCodesMutationOptions(queryClient: QueryClient, matter
       if (snapshot) restoreCoding(queryClient, snapshot);
     },
     onSuccess: (answer) => {
+      if (pendingFor(queryClient, matterId, answer.documentId) > 1) return;
       patchCachedCoding(
         queryClient,
         matterId,
@@ -71,7 +91,13 @@ export function setDocumentCodesMutationOptions(queryClient: QueryClient, matter
     onSettled: async (answer, _error, vars) => {
       await queryClient.invalidateQueries({ queryKey: codesQueryKey(matterId) });
       // Family and duplicate propagation, the privilege entry and batch progress change too.
-      if (answer?.propagated?.length || vars.privilege)
+      // The review refetch waits for the queue to drain, or it would bring back a state
+      // older than the choices still queued.
+      const stale = staleReviews.get(queryClient) ?? new Set<number>();
+      staleReviews.set(queryClient, stale);
+      if (answer?.propagated?.length || vars.privilege) stale.add(matterId);
+      const queued = queryClient.isMutating({ mutationKey: setDocumentCodesMutationKey(matterId) });
+      if (queued <= 1 && stale.delete(matterId))
         await queryClient.invalidateQueries({ queryKey: reviewsQueryKey(matterId) });
       await queryClient.invalidateQueries({ queryKey: batchesQueryKey(matterId) });
     },
