@@ -25,7 +25,8 @@ async function chunked<T>(ids: number[], run: (slice: number[]) => Promise<T[]>)
  * other code of the privilege group ("coded otherwise", e.g. Not privileged). Rows go
  * family by family (by the top-level item's control number), the top-level item first
  * and its members after it; a member without an entry of its own takes the top-level
- * item's privilege type, basis and treatment.
+ * item's privilege type, basis and treatment. A document with redactions in force is on it
+ * as redacted, whatever its codes.
  */
 export async function buildPrivilegeLog(db: Db, matterId: number): Promise<PrivilegeLogRow[]> {
   const privilegeCodes = await db
@@ -42,17 +43,36 @@ export async function buildPrivilegeLog(db: Db, matterId: number): Promise<Privi
     .where('marks_privileged', '=', 1)
     .execute();
   const markIds = marking.map((c) => c.id);
-  if (markIds.length === 0) return [];
   const otherwise = privilegeCodes.filter((c) => c.marks_privileged !== 1).map((c) => c.id);
-  const privileged = await db
-    .selectFrom('document_codes as dc')
-    .innerJoin('documents as d', 'd.id', 'dc.document_id')
-    .select(['d.id', 'd.family_id'])
-    .where('d.matter_id', '=', matterId)
-    .where('dc.code_id', 'in', markIds)
+  const coded = markIds.length
+    ? await db
+        .selectFrom('document_codes as dc')
+        .innerJoin('documents as d', 'd.id', 'dc.document_id')
+        .select(['d.id', 'd.family_id'])
+        .where('d.matter_id', '=', matterId)
+        .where('dc.code_id', 'in', markIds)
+        .execute()
+    : [];
+  // A document with redactions still in force is logged too, as redacted, with the
+  // redactions' reasons as its basis when no privilege entry gives one (issue 15).
+  const redactions = await db
+    .selectFrom('redactions as r')
+    .innerJoin('documents as d', 'd.id', 'r.document_id')
+    .select(['d.id', 'd.family_id', 'r.reason'])
+    .where('r.matter_id', '=', matterId)
+    .where('r.removed_at', 'is', null)
+    .orderBy('r.id')
     .execute();
+  const reasonsOf = new Map<number, string[]>();
+  for (const r of redactions) {
+    const list = reasonsOf.get(r.id) ?? [];
+    if (!list.includes(r.reason)) list.push(r.reason);
+    reasonsOf.set(r.id, list);
+  }
+  const privileged = [...coded, ...redactions];
   if (privileged.length === 0) return [];
-  const privilegedIds = new Set(privileged.map((p) => p.id));
+  // Only a privilege code passes down a family; a redaction stays on its own document.
+  const privilegedIds = new Set(coded.map((p) => p.id));
   const familyIds = [...new Set(privileged.map((p) => p.family_id ?? p.id))];
   const members = await chunked(familyIds, (slice) =>
     db
@@ -132,7 +152,7 @@ export async function buildPrivilegeLog(db: Db, matterId: number): Promise<Privi
     const controls = list.map((m) => m.control_number).sort();
     const isFamily = list.length > 1;
     for (const m of list) {
-      const own = privilegedIds.has(m.id);
+      const own = privilegedIds.has(m.id) || reasonsOf.has(m.id);
       const inherited = !own && topPrivileged && !otherwiseIds.has(m.id);
       if (!own && !inherited) continue;
       const entry = entryOf.get(m.id);
@@ -158,9 +178,10 @@ export async function buildPrivilegeLog(db: Db, matterId: number): Promise<Privi
         ),
         documentType: documentTypeLabel(m.doc_type, m.mime, m.original_name),
         privilegeType: source?.privilege_type ?? '',
-        basis: source?.basis ?? '',
+        basis: source?.basis || (reasonsOf.get(m.id) ?? []).join('; '),
         description: entry?.description ?? '',
-        treatment: TREATMENT_LABELS[source?.treatment ?? 'withheld'],
+        treatment:
+          TREATMENT_LABELS[reasonsOf.has(m.id) ? 'redacted' : (source?.treatment ?? 'withheld')],
         inherited,
       });
     }

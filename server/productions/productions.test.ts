@@ -247,6 +247,25 @@ describe('redactions', () => {
       .where('action', '=', 'redaction.added')
       .execute();
     expect(audit.length).toBe(3);
+
+    // Issue 15: a redacted document is on the privilege log as redacted, with the reason;
+    // the document coded Privileged (advice.txt) stays withheld.
+    const log = await lead.get(`/api/matters/${matter.id}/privilege-log`);
+    expect(log.status).toBe(200);
+    const rowOf = (docId: number) =>
+      (log.body.rows as { documentId: number; treatment: string; basis: string }[]).find(
+        (r) => r.documentId === docId,
+      );
+    expect(rowOf(ids['counsel-memo.txt'])).toMatchObject({
+      treatment: 'Redacted',
+      basis: 'Privilege',
+    });
+    expect(rowOf(ids['board-minutes.pdf'])).toMatchObject({
+      treatment: 'Redacted',
+      basis: 'Personal data',
+    });
+    expect(rowOf(ids['advice.txt'])).toMatchObject({ treatment: 'Withheld' });
+    expect(rowOf(ids['supply-note.eml'])).toBeUndefined();
   });
 });
 
