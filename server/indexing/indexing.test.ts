@@ -103,6 +103,24 @@ describe('rebuild safety', () => {
     expect(hits.length).toBe(2);
   });
 
+  it('refuses a k above the number of documents, naming the bound, and queues nothing', async () => {
+    // A rank-k truncated SVD needs k <= min(m, n) (Golub and Van Loan, Matrix Computations,
+    // 4th ed., section 2.4); the n columns are the matter's extracted documents.
+    const state = await indexState();
+    expect(state.buildableDocuments).toBe(TEXTS.length);
+    const res = await lead
+      .post(`/api/matters/${matter.id}/index/rebuild`)
+      .send({ k: TEXTS.length + 1 });
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toBe(
+      `k: must be at most ${TEXTS.length}, the number of documents the concept space is built from`,
+    );
+    expect(res.body.error.field).toBe('k');
+    const after = await indexState();
+    expect(after.activeJob).toBeNull();
+    expect(after.current?.id).toBe(state.current?.id);
+  });
+
   it('refuses a rebuild from a paralegal (index.rebuild is for leads)', async () => {
     const user = await t.buildUser();
     await t.addMember(matter, user, 'paralegal');

@@ -11,6 +11,7 @@ import { prepareForSearch } from '../engine/index';
 import { saveFoldedDocuments } from './persist';
 import {
   automaticK,
+  indexKError,
   type IndexStateResponse,
   type IndexVersionInfo,
   type IndexWeighting,
@@ -21,7 +22,7 @@ import type { Config } from '../config';
 import type { Db } from '../db/database';
 import type { IndexVersionRow } from '../db/schema';
 import { countExtracted, countIndexStates } from '../documents/queries';
-import { conflict } from '../http/errors';
+import { conflict, validationError } from '../http/errors';
 import { findActiveJob, findJob } from '../jobs/queries';
 import { jobRowToApi } from '../jobs/map';
 import type { JobRun, JobRunner } from '../jobs/runner';
@@ -214,8 +215,10 @@ export class IndexService {
     body: RebuildIndexReq,
     actor: { id: string; email: string; ip: string | null },
   ) {
-    if ((await countExtracted(this.db, matterId)) === 0)
-      throw conflict('There are no extracted documents to index yet.');
+    const buildable = await countExtracted(this.db, matterId);
+    if (buildable === 0) throw conflict('There are no extracted documents to index yet.');
+    const kError = body.k !== undefined ? indexKError(body.k, buildable) : null;
+    if (kError) throw validationError('k', kError);
     const jobId = await this.queueBuild(matterId, {
       k: body.k,
       weighting: body.weighting,
@@ -424,6 +427,7 @@ export class IndexService {
         failed && (!current || failed.version > current.version) ? versionToApi(failed) : null,
       activeJob: active ? jobRowToApi(active) : null,
       rebuildFoldInShare: this.config.rebuildFoldInShare,
+      buildableDocuments: await countExtracted(this.db, matterId),
     };
   }
 

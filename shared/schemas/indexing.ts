@@ -22,6 +22,19 @@ export function automaticK(documentCount: number): number {
 }
 export const INDEX_K_MAX = 1000;
 
+/**
+ * The one rule for a k the matter can hold, used by the rebuild form and the API alike: a
+ * rank-k truncated SVD of an m x n matrix needs k <= min(m, n) (Golub and Van Loan, Matrix
+ * Computations, 4th ed., section 2.4), and the documents of a build are its n columns. A k
+ * within this bound can still be lowered to the matrix's numerical rank (near-identical
+ * documents), which the build reports.
+ */
+export function indexKError(k: number, buildableDocuments: number): string | null {
+  if (buildableDocuments > 0 && k > buildableDocuments)
+    return `must be at most ${buildableDocuments}, the number of documents the concept space is built from`;
+  return null;
+}
+
 /** POST /api/matters/:matterId/index/rebuild (202). Defaults: the current version's settings. */
 export const rebuildIndexSchema = z.object({
   k: z
@@ -100,6 +113,8 @@ export interface IndexStateResponse {
   activeJob: Job | null;
   /** foldedIn / (indexed + foldedIn) above which a rebuild is queued by itself. */
   rebuildFoldInShare: number;
+  /** Extracted documents: the columns a rebuild would have (k is at most this, indexKError). */
+  buildableDocuments: number;
 }
 
 /** 202 answer of POST /api/matters/:matterId/index/rebuild */

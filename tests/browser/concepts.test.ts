@@ -80,6 +80,16 @@ describeBrowser('concept space: spectrum, rebuild with another k, document map',
       fullPage: true,
     });
 
+    // A k above the matter's document count is refused in the form by the API's own rule
+    // (shared indexKError: k <= min(m, n)), and nothing is queued.
+    const impossible = (await indexState(p, matterId)).buildableDocuments + 1;
+    await p.getByTestId('rebuild-k').fill(String(impossible));
+    await p.getByTestId('rebuild-submit').click();
+    await expect
+      .poll(() => p.getByTestId('rebuild-form').textContent())
+      .toContain(`must be at most ${impossible - 1}, the number of documents`);
+    expect(await p.getByTestId('rebuild-progress').count()).toBe(0);
+
     // Another k, typed into the lead's form; the preview reads the current spectrum.
     const newK = Math.max(3, oldK - 10);
     await p.getByTestId('rebuild-k').fill(String(newK));

@@ -5,6 +5,7 @@ import {
   INDEX_K_MAX,
   INDEX_WEIGHTINGS,
   type IndexStateResponse,
+  indexKError,
   type IndexWeighting,
 } from '@shared/schemas/indexing';
 import { Button, Notice, Select, describeError, inputClass } from '@/components/ui';
@@ -23,12 +24,17 @@ const WEIGHTING_LABELS: Record<IndexWeighting, string> = {
   raw: 'Raw counts',
 };
 
-function parseK(raw: string): { k: number | null; error: string | null } {
+function parseK(
+  raw: string,
+  buildableDocuments: number,
+): { k: number | null; error: string | null } {
   if (raw.trim() === '') return { k: null, error: 'Enter a number of concepts.' };
   const k = Number(raw);
   if (!Number.isInteger(k)) return { k: null, error: 'k must be a whole number.' };
   if (k < 1) return { k: null, error: 'k must be at least 1.' };
   if (k > INDEX_K_MAX) return { k: null, error: `k must be at most ${INDEX_K_MAX}.` };
+  const beyond = indexKError(k, buildableDocuments);
+  if (beyond) return { k: null, error: `k ${beyond}.` };
   return { k, error: null };
 }
 
@@ -69,7 +75,7 @@ export function RebuildForm({
   const [jobId, setJobId] = useState<number | null>(null);
   const job = useJob(jobId);
 
-  const { k, error: kError } = parseK(rawK);
+  const { k, error: kError } = parseK(rawK, state.data?.buildableDocuments ?? 0);
   useEffect(() => onProposedK(k), [k, onProposedK]);
 
   const runningJob = runningBuildJob(state.data);
