@@ -35,6 +35,9 @@ export interface AuditFilter {
   actorId?: string;
   action?: string;
   beforeId?: number;
+  /** Inclusive ISO timestamps (the CSV export's day range). */
+  atFrom?: string;
+  atBefore?: string;
   limit: number;
 }
 
@@ -59,6 +62,8 @@ export function listAuditEvents(db: Kysely<Database>, filter: AuditFilter) {
   if (filter.actorId) query = query.where('e.actor_id', '=', filter.actorId);
   if (filter.action) query = query.where('e.action', '=', filter.action);
   if (filter.beforeId) query = query.where('e.id', '<', filter.beforeId);
+  if (filter.atFrom) query = query.where('e.at', '>=', filter.atFrom);
+  if (filter.atBefore) query = query.where('e.at', '<', filter.atBefore);
   return query.orderBy('e.id', 'desc').limit(filter.limit).execute();
 }
 

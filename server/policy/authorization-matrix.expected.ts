@@ -47,6 +47,7 @@ export const EXPECTED_ACCESS: Record<string, ExpectedAccess> = {
   'GET /invitations/:token': PUBLIC,
   'POST /invitations/:token/accept': PUBLIC,
   'GET /matters/:matterId/audit': members('lead'),
+  'GET /matters/:matterId/audit.csv': members('lead'),
   // The dev mailbox: firm admins only (in development it is not mounted behind sign-in).
   'GET /dev/mail': FIRM_ADMIN,
   'GET /instance': PUBLIC,

@@ -190,6 +190,16 @@ describeBrowser('account set-up link end to end', () => {
       const newest = p.getByTestId('audit-row').first();
       await expect.poll(() => newest.innerText()).toContain(NEWCOMER.name);
       expect(await newest.innerText()).toContain(NEWCOMER.email);
+
+      // A day range filters the table, and the CSV link exports the same range.
+      const today = new Date().toISOString().slice(0, 10);
+      await p.getByTestId('audit-filter-from').fill(today);
+      await expect.poll(() => p.url()).toContain(`from=${today}`);
+      const href = (await p.getByTestId('audit-csv').getAttribute('href')) ?? '';
+      expect(href).toBe(`/api/matters/${matterId}/audit.csv?from=${today}`);
+      const csv = await p.evaluate(async (url) => (await fetch(url)).text(), href);
+      expect(csv.split('\r\n')[0]).toContain('Time (UTC),Actor,Actor e-mail,Action');
+      expect(csv).toContain(NEWCOMER.email);
     },
   );
 });

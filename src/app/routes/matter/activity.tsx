@@ -12,6 +12,7 @@ import {
   Select,
   Spinner,
   TBody,
+  TextField,
   THead,
   Table,
   Td,
@@ -22,6 +23,7 @@ import { useMembers } from '@/features/members/api/get-members';
 import {
   type AuditEvent,
   type AuditFilters,
+  auditCsvHref,
   auditEventsQueryOptions,
   useAuditEvents,
 } from '@/features/audit/api/get-audit-events';
@@ -40,6 +42,8 @@ function filtersFrom(params: URLSearchParams): AuditFilters {
   return {
     actor: params.get('actor') || undefined,
     action: params.get('action') || undefined,
+    from: params.get('from') || undefined,
+    to: params.get('to') || undefined,
     before: Number.isInteger(before) && before > 0 ? before : undefined,
     limit: PAGE_SIZE,
   };
@@ -98,7 +102,7 @@ function ActivityLog({ matterId }: { matterId: number }) {
     setParams(next, { replace: true });
   }
 
-  function setFilter(key: 'actor' | 'action', value: string) {
+  function setFilter(key: 'actor' | 'action' | 'from' | 'to', value: string) {
     setNewerCursors([]);
     update({ [key]: value, before: undefined });
   }
@@ -140,6 +144,32 @@ function ActivityLog({ matterId }: { matterId: number }) {
           onChange={(event) => setFilter('action', event.target.value)}
           data-testid="audit-filter-action"
         />
+        <TextField
+          label="From day"
+          type="date"
+          className="w-44"
+          value={filters.from ?? ''}
+          max={filters.to}
+          onChange={(event) => setFilter('from', event.target.value)}
+          data-testid="audit-filter-from"
+        />
+        <TextField
+          label="To day"
+          type="date"
+          className="w-44"
+          value={filters.to ?? ''}
+          min={filters.from}
+          onChange={(event) => setFilter('to', event.target.value)}
+          data-testid="audit-filter-to"
+        />
+        <a
+          href={auditCsvHref(matterId, filters)}
+          download
+          className="inline-flex h-9 items-center rounded-md border border-line-strong bg-panel px-3 text-sm font-medium hover:bg-sunk"
+          data-testid="audit-csv"
+        >
+          Export CSV
+        </a>
         {events.isFetching && !events.isPending ? (
           <Spinner size="sm" label="Updating" className="mb-2.5 text-ink-muted" />
         ) : null}

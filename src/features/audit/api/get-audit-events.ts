@@ -8,6 +8,9 @@ export interface AuditFilters {
   /** User id. */
   actor?: string;
   action?: string;
+  /** An inclusive day range, YYYY-MM-DD (UTC days). */
+  from?: string;
+  to?: string;
   /** The previous page's nextCursor; absent for the newest page. */
   before?: number;
   limit: number;
@@ -23,6 +26,8 @@ export function getAuditEvents(
     query: {
       actor: filters.actor,
       action: filters.action,
+      from: filters.from,
+      to: filters.to,
       before: filters.before,
       limit: filters.limit,
     },
@@ -40,4 +45,15 @@ export function auditEventsQueryOptions(matterId: number, filters: AuditFilters)
 
 export function useAuditEvents(matterId: number, filters: AuditFilters) {
   return useQuery(auditEventsQueryOptions(matterId, filters));
+}
+
+/** GET /api/matters/:matterId/audit.csv: the whole trail under the same filters (a download). */
+export function auditCsvHref(matterId: number, filters: Omit<AuditFilters, 'before' | 'limit'>) {
+  const query = new URLSearchParams();
+  for (const key of ['actor', 'action', 'from', 'to'] as const) {
+    const value = filters[key];
+    if (value) query.set(key, value);
+  }
+  const qs = query.toString();
+  return `/api/matters/${matterId}/audit.csv${qs ? `?${qs}` : ''}`;
 }
