@@ -3,7 +3,7 @@
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { AUDIT_CSV_COLUMNS, type AuditEvent } from '../../shared/schemas/audit';
-import { createTestApp, type Agent, type TestApp } from '../../tests/helpers';
+import { createTestApp, type Agent, type TestApp, bytesBody } from '../../tests/helpers';
 import { buildMemoMatter, type MemoMatter } from '../search/test-fixture';
 
 let t: TestApp;
@@ -12,15 +12,7 @@ let base: string;
 let lead: Agent;
 
 async function download(agent: Agent, path: string, query: Record<string, string> = {}) {
-  const res = await agent
-    .get(path)
-    .query(query)
-    .buffer(true)
-    .parse((response, callback) => {
-      const chunks: Buffer[] = [];
-      response.on('data', (c: Buffer) => chunks.push(c));
-      response.on('end', () => callback(null, Buffer.concat(chunks)));
-    });
+  const res = await agent.get(path).query(query).buffer(true).parse(bytesBody);
   return { res, rows: parse(res.body as Buffer, { bom: true }) as string[][] };
 }
 

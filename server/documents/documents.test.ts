@@ -11,7 +11,13 @@ import type { UploadBatchResponse } from '../../shared/schemas/documents';
 import type { IndexStateResponse } from '../../shared/schemas/indexing';
 import type { JobResponse } from '../../shared/schemas/jobs';
 import { makeZipBomb, makeZipWithRawNames } from '../../tests/fixtures/hostile-zips';
-import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
+import {
+  createTestApp,
+  type Agent,
+  type TestApp,
+  type TestMatter,
+  bytesBody,
+} from '../../tests/helpers';
 
 const MAX_FILE = 2 * 1024 * 1024;
 
@@ -383,11 +389,7 @@ describe('fold-in, download, retry and delete', () => {
     const res = await paralegal
       .get(`/api/matters/${matter.id}/documents/${id}/original`)
       .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      .parse(bytesBody);
     expect(res.status).toBe(200);
     // RFC 6266 §4.1: filename is a token or a quoted-string.
     expect(res.headers['content-disposition']).toMatch(

@@ -4,7 +4,13 @@
 // U+FEFF (Unicode Standard, section 23.8). Formula neutralising follows OWASP "CSV Injection".
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { createTestApp, type Agent, type TestApp, type TestUser } from '../../tests/helpers';
+import {
+  createTestApp,
+  type Agent,
+  type TestApp,
+  type TestUser,
+  bytesBody,
+} from '../../tests/helpers';
 import { buildMemoMatter, type MemoMatter } from '../search/test-fixture';
 
 let t: TestApp;
@@ -29,15 +35,7 @@ afterAll(() => t?.close());
 
 /** Downloads as raw bytes (supertest would otherwise decode and hide the BOM). */
 async function download(agent: Agent, path: string, query: Record<string, string> = {}) {
-  const res = await agent
-    .get(path)
-    .query(query)
-    .buffer(true)
-    .parse((response, callback) => {
-      const chunks: Buffer[] = [];
-      response.on('data', (c: Buffer) => chunks.push(c));
-      response.on('end', () => callback(null, Buffer.concat(chunks)));
-    });
+  const res = await agent.get(path).query(query).buffer(true).parse(bytesBody);
   return { res, bytes: res.body as Buffer };
 }
 

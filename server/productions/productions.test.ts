@@ -16,7 +16,13 @@ import { makeEml, makePdf, makeText } from '../../corpus-demo/render';
 import type { UploadBatchResponse } from '../../shared/schemas/documents';
 import type { JobResponse } from '../../shared/schemas/jobs';
 import type { Production, ProductionResponse } from '../../shared/schemas/productions';
-import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
+import {
+  createTestApp,
+  type Agent,
+  type TestApp,
+  type TestMatter,
+  bytesBody,
+} from '../../tests/helpers';
 import { familyOrder, WITHHELD_FAMILY, WITHHELD_PRIVILEGED } from './build';
 
 let t: TestApp;
@@ -110,11 +116,7 @@ async function download(productionId: number) {
   const res = await lead
     .get(`/api/matters/${matter.id}/productions/${productionId}/download`)
     .buffer(true)
-    .parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    .parse(bytesBody);
   expect(res.status).toBe(200);
   expect(res.headers['content-type']).toMatch(/application\/zip/);
   return res.body as Buffer;

@@ -13,7 +13,13 @@ import type {
 } from '../../shared/schemas/documents';
 import type { JobResponse } from '../../shared/schemas/jobs';
 import type { NearDuplicatesResponse, ThreadResponse } from '../../shared/schemas/relationships';
-import { createTestApp, type Agent, type TestApp, type TestMatter } from '../../tests/helpers';
+import {
+  createTestApp,
+  type Agent,
+  type TestApp,
+  type TestMatter,
+  bytesBody,
+} from '../../tests/helpers';
 
 let t: TestApp;
 let matter: TestMatter;
@@ -186,11 +192,7 @@ describe('families, duplicates and all custodians', () => {
       .get(`/api/matters/${matter.id}/exports/results.csv`)
       .query({ query: 'moisture', mode: 'keyword' })
       .buffer(true)
-      .parse((response, done) => {
-        const chunks: Buffer[] = [];
-        response.on('data', (c: Buffer) => chunks.push(c));
-        response.on('end', () => done(null, Buffer.concat(chunks)));
-      });
+      .parse(bytesBody);
     expect(res.status).toBe(200);
     const [header, ...rows] = parse(res.body as Buffer, { bom: true }) as string[][];
     const row = rows.find((r) => r[1] === email.controlNumber)!;
