@@ -11,3 +11,4 @@ export { TBody, THead, Table, Td, Th, Tr } from './table';
 export { TextField, inputClass } from './text-field';
 export { QueryBoundary } from './query-boundary';
 export { Pager, SortableTh, type SortDirection } from './sortable-table';
+export { DownloadLink } from './download-link';

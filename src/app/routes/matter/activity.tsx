@@ -5,6 +5,7 @@ import { AUDIT_ACTIONS, AUDIT_ACTION_LABELS } from '@shared/audit';
 import { useSearchParams } from 'react-router-dom';
 import {
   Button,
+  DownloadLink,
   EmptyState,
   Notice,
   PageHeader,
@@ -162,14 +163,9 @@ function ActivityLog({ matterId }: { matterId: number }) {
           onChange={(event) => setFilter('to', event.target.value)}
           data-testid="audit-filter-to"
         />
-        <a
-          href={auditCsvHref(matterId, filters)}
-          download
-          className="inline-flex h-9 items-center rounded-md border border-line-strong bg-panel px-3 text-sm font-medium hover:bg-sunk"
-          data-testid="audit-csv"
-        >
+        <DownloadLink href={auditCsvHref(matterId, filters)} data-testid="audit-csv">
           Export CSV
-        </a>
+        </DownloadLink>
         {events.isFetching && !events.isPending ? (
           <Spinner size="sm" label="Updating" className="mb-2.5 text-ink-muted" />
         ) : null}

@@ -6,7 +6,14 @@ import {
   type PrivilegeLogRow,
 } from '@shared/schemas/privilege-log';
 import { ReviewCaution } from '@/components/review-caution';
-import { EmptyState, Notice, PageHeader, QueryBoundary, describeError } from '@/components/ui';
+import {
+  DownloadLink,
+  EmptyState,
+  Notice,
+  PageHeader,
+  QueryBoundary,
+  describeError,
+} from '@/components/ui';
 import { useMatterPermission } from '@/lib/authorization';
 import { privilegeLogCsvHref } from '@/features/exports/api/export-links';
 import { usePatchPrivilegeLogRow } from '../api/patch-privilege-log-row';
@@ -48,14 +55,9 @@ export function PrivilegeLogPage({ matterId }: { matterId: number }) {
         description="Every withheld or redacted document, family members under their parent. Describe each without revealing the privileged content."
         actions={
           canExport ? (
-            <a
-              href={privilegeLogCsvHref(matterId)}
-              download
-              className="inline-flex h-9 items-center rounded-md border border-line-strong bg-panel px-3 text-sm font-medium hover:bg-sunk"
-              data-testid="privilege-log-csv"
-            >
+            <DownloadLink href={privilegeLogCsvHref(matterId)} data-testid="privilege-log-csv">
               Export CSV
-            </a>
+            </DownloadLink>
           ) : null
         }
       />
