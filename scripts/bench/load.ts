@@ -11,6 +11,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { Worker } from 'node:worker_threads';
 import autocannon from 'autocannon';
 
 const args = process.argv.slice(2);
@@ -141,23 +142,32 @@ async function main() {
     ).total;
 
     // The signed-in user's check, one request at a time every 100 ms while the load runs.
-    const me: number[] = [];
-    let meErrors = 0;
-    let probing = true;
-    const probe = (async () => {
-      while (probing) {
-        const s = performance.now();
-        try {
-          const res = await fetch(`${baseUrl}/api/auth/me`, { headers: { cookie: signedIn } });
-          await res.arrayBuffer();
-          if (res.status !== 200) meErrors++;
-        } catch {
-          meErrors++;
+    // It runs in a worker thread of its own: autocannon's 200 connections keep this
+    // process's event loop busy, and a probe sharing that loop would time the load
+    // generator's own backlog instead of the server (a second user is on another machine).
+    const probeWorker = new Worker(
+      `const { parentPort, workerData } = require('node:worker_threads');
+      const me = []; let errors = 0; let probing = true;
+      parentPort.on('message', () => { probing = false; });
+      (async () => {
+        while (probing) {
+          const s = performance.now();
+          try {
+            const res = await fetch(workerData.url, { headers: { cookie: workerData.cookie } });
+            await res.arrayBuffer();
+            if (res.status !== 200) errors++;
+          } catch { errors++; }
+          me.push(performance.now() - s);
+          await new Promise((r) => setTimeout(r, 100));
         }
-        me.push(performance.now() - s);
-        await new Promise((r) => setTimeout(r, 100));
-      }
-    })();
+        parentPort.postMessage({ me, errors });
+      })();`,
+      { eval: true, workerData: { url: `${baseUrl}/api/auth/me`, cookie: signedIn } },
+    );
+    const probed = new Promise<{ me: number[]; errors: number }>((resolve, reject) => {
+      probeWorker.once('message', resolve);
+      probeWorker.once('error', reject);
+    });
 
     const loadBefore = loadavg();
     const latencies: number[] = [];
@@ -181,8 +191,9 @@ async function main() {
       statuses.set(statusCode, (statuses.get(statusCode) ?? 0) + 1);
     });
     const result = await instance;
-    probing = false;
-    await probe;
+    probeWorker.postMessage('stop');
+    const { me, errors: meErrors } = await probed;
+    await probeWorker.terminate();
     const loadAfter = loadavg();
 
     latencies.sort((a, b) => a - b);
